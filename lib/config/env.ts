@@ -1,0 +1,89 @@
+import { z } from 'zod';
+
+/**
+ * Every environment setting Holdfast reads, in one schema. Nothing else in the
+ * code base reads `process.env`: call `loadConfig()` once at start and pass
+ * the result down.
+ */
+
+// loadConfig drops empty strings before parsing, so unset and "" are alike.
+const optionalText = z.string().trim().optional();
+
+const port = (fallback: number) =>
+  z.coerce
+    .number({ error: 'must be a whole number from 1 to 65535' })
+    .int('must be a whole number from 1 to 65535')
+    .min(1, 'must be a whole number from 1 to 65535')
+    .max(65535, 'must be a whole number from 1 to 65535')
+    .default(fallback);
+
+const postgresUrl = optionalText.refine(
+  (v) => v === undefined || /^postgres(ql)?:\/\/.+/.test(v),
+  'must be a postgres:// or postgresql:// URL',
+);
+
+const mqttUrl = optionalText.refine(
+  (v) => v === undefined || /^(mqtts?|wss?|tcp):\/\/.+/.test(v),
+  'must be an mqtt://, mqtts://, ws:// or wss:// URL',
+);
+
+function isIanaZone(zone: string): boolean {
+  try {
+    new Intl.DateTimeFormat('en-GB', { timeZone: zone });
+    return true;
+  } catch {
+    return false;
+  }
+}
+
+const onOff = (fallback: 'on' | 'off') =>
+  z
+    .enum(['on', 'off', 'true', 'false', '1', '0'], { error: 'must be on or off' })
+    .default(fallback)
+    .transform((v) => v === 'on' || v === 'true' || v === '1');
+
+export const envSchema = z.object({
+  DATABASE_URL: postgresUrl,
+  MQTT_URL: mqttUrl,
+  MQTT_USERNAME: optionalText,
+  MQTT_PASSWORD: optionalText,
+  MQTT_TOPIC_ROOT: z
+    .string()
+    .trim()
+    .default('fleet/v1')
+    .refine(
+      (v) => v.length > 0 && !/[#+]/.test(v) && !v.startsWith('/') && !v.endsWith('/'),
+      'must be a topic prefix without wildcards or leading/trailing "/" (e.g. fleet/v1)',
+    ),
+  MQTT_CLIENT_ID: z.string().trim().min(1).max(64).default('holdfast-ingest'),
+  PORT: port(3000),
+  HOLDFAST_DATA_DIR: z.string().trim().min(1, 'must not be empty').default('./.holdfast'),
+  FLEET_TIME_ZONE: z
+    .string()
+    .trim()
+    .default('UTC')
+    .refine(isIanaZone, 'must be an IANA time zone name such as UTC or Europe/Oslo'),
+  HOLDFAST_STORE: z
+    .enum(['auto', 'timescale', 'partitions'], { error: 'must be auto, timescale or partitions' })
+    .default('auto'),
+  HOLDFAST_EMBEDDED_PG_PORT: port(5488),
+  HOLDFAST_EMBEDDED_MQTT_PORT: port(1884),
+  HOLDFAST_DEMO: onOff('on'),
+  HOLDFAST_DEMO_INTERVAL_S: z.coerce
+    .number({ error: 'must be a whole number of seconds from 1 to 3600' })
+    .int('must be a whole number of seconds from 1 to 3600')
+    .min(1, 'must be a whole number of seconds from 1 to 3600')
+    .max(3600, 'must be a whole number of seconds from 1 to 3600')
+    .default(10),
+  HOLDFAST_DEMO_HISTORY_DAYS: z.coerce
+    .number({ error: 'must be a whole number of days from 0 to 365' })
+    .int('must be a whole number of days from 0 to 365')
+    .min(0, 'must be a whole number of days from 0 to 365')
+    .max(365, 'must be a whole number of days from 0 to 365')
+    .default(2),
+  LOG_LEVEL: z
+    .enum(['debug', 'info', 'warn', 'error'], { error: 'must be debug, info, warn or error' })
+    .default('info'),
+});
+
+export type Env = z.infer<typeof envSchema>;

@@ -1,0 +1,57 @@
+import { describe, expect, it } from 'vitest';
+import { ConfigError, loadConfig } from './index';
+
+describe('loadConfig', () => {
+  it('applies the documented defaults to an empty environment', () => {
+    const c = loadConfig({});
+    expect(c.DATABASE_URL).toBeUndefined();
+    expect(c.MQTT_URL).toBeUndefined();
+    expect(c).toMatchObject({
+      MQTT_TOPIC_ROOT: 'fleet/v1',
+      PORT: 3000,
+      HOLDFAST_DATA_DIR: './.holdfast',
+      FLEET_TIME_ZONE: 'UTC',
+      HOLDFAST_STORE: 'auto',
+      HOLDFAST_EMBEDDED_MQTT_PORT: 1884,
+      HOLDFAST_DEMO: true,
+    });
+  });
+
+  it('treats an empty string as unset', () => {
+    expect(loadConfig({ DATABASE_URL: '', PORT: '' }).DATABASE_URL).toBeUndefined();
+    expect(loadConfig({ PORT: '' }).PORT).toBe(3000);
+  });
+
+  it('coerces numbers and accepts real URLs and zones', () => {
+    const c = loadConfig({
+      PORT: '8080',
+      DATABASE_URL: 'postgres://postgres@127.0.0.1:5432/test',
+      MQTT_URL: 'mqtt://127.0.0.1:1883',
+      FLEET_TIME_ZONE: 'Europe/Oslo',
+      HOLDFAST_DEMO: 'off',
+    });
+    expect(c.PORT).toBe(8080);
+    expect(c.FLEET_TIME_ZONE).toBe('Europe/Oslo');
+    expect(c.HOLDFAST_DEMO).toBe(false);
+  });
+
+  it.each([
+    [{ PORT: 'abc' }, 'Setting PORT: must be a whole number from 1 to 65535 (got "abc")'],
+    [{ PORT: '70000' }, 'Setting PORT: must be a whole number from 1 to 65535 (got "70000")'],
+    [{ FLEET_TIME_ZONE: 'Mars/Olympus' }, 'Setting FLEET_TIME_ZONE: must be an IANA time zone name'],
+    [{ DATABASE_URL: 'mysql://x' }, 'Setting DATABASE_URL: must be a postgres:// or postgresql:// URL'],
+    [{ MQTT_URL: 'http://x' }, 'Setting MQTT_URL: must be an mqtt://'],
+    [{ MQTT_TOPIC_ROOT: 'fleet/#' }, 'Setting MQTT_TOPIC_ROOT: must be a topic prefix without wildcards'],
+    [{ HOLDFAST_STORE: 'mongo' }, 'Setting HOLDFAST_STORE: must be auto, timescale or partitions'],
+  ])('rejects %o with one line naming the setting', (env, message) => {
+    let error: unknown;
+    try {
+      loadConfig(env);
+    } catch (e) {
+      error = e;
+    }
+    expect(error).toBeInstanceOf(ConfigError);
+    expect((error as Error).message).toContain(message);
+    expect((error as Error).message).not.toContain('\n');
+  });
+});

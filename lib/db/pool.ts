@@ -1,0 +1,18 @@
+import pg from 'pg';
+
+// Return `date` columns as 'YYYY-MM-DD' text: a fleet day is a calendar day,
+// not an instant, and converting it to a JS Date would shift it by the
+// process's time zone. 1082 is the OID of PostgreSQL's date type.
+pg.types.setTypeParser(1082, (value) => value);
+// bigint counts (count(*)) fit comfortably in a double for Holdfast's sizes.
+pg.types.setTypeParser(20, (value) => Number(value));
+
+export type Pool = pg.Pool;
+
+export function createPool(connectionString: string, max = 10): pg.Pool {
+  const pool = new pg.Pool({ connectionString, max, application_name: 'holdfast' });
+  // An idle client losing its connection must not crash the process; the
+  // next query reconnects.
+  pool.on('error', () => {});
+  return pool;
+}
