@@ -1,0 +1,96 @@
+import type { z } from 'zod';
+import { recordSchemas, type Stream, type TelemetryRecord } from './schemas';
+
+/** Limits of the contract, and the one Holdfast adds (future timestamps). */
+export const MAX_PAYLOAD_BYTES = 1024 * 1024;
+export const MAX_RECORDS_PER_MESSAGE = 10_000;
+export const MAX_FUTURE_MS = 5 * 60_000;
+
+export type RejectReason =
+  | 'bad_topic'
+  | 'unknown_stream'
+  | 'unknown_vessel'
+  | 'payload_too_large'
+  | 'invalid_json'
+  | 'invalid_payload'
+  | 'too_many_records'
+  | 'invalid_record'
+  | 'non_finite_number'
+  | 'future_timestamp';
+
+export interface Rejection {
+  reason: RejectReason;
+  detail: string;
+  /** The offending record, or the whole payload text when no record could be read. */
+  payload: unknown;
+}
+
+export interface ParsedPayload<S extends Stream> {
+  records: TelemetryRecord[S][];
+  rejected: Rejection[];
+}
+
+/**
+ * One MQTT payload → its valid records and a rejection per bad one. A bad
+ * record never takes the good records of the same batch with it.
+ */
+export function parsePayload<S extends Stream>(stream: S, payload: Buffer, now: Date): ParsedPayload<S> {
+  const whole = (reason: RejectReason, detail: string): ParsedPayload<S> => ({
+    records: [],
+    rejected: [{ reason, detail, payload: payload.subarray(0, 65_536).toString('utf8') }],
+  });
+  if (payload.length > MAX_PAYLOAD_BYTES) {
+    return whole('payload_too_large', `payload is ${payload.length} bytes; the limit is ${MAX_PAYLOAD_BYTES}`);
+  }
+  let body: unknown;
+  try {
+    body = JSON.parse(payload.toString('utf8'));
+  } catch (error) {
+    return whole('invalid_json', (error as Error).message);
+  }
+  if (typeof body !== 'object' || body === null || Array.isArray(body)) {
+    return whole('invalid_payload', 'payload must be a record object or {"records": [...]}');
+  }
+  let items: unknown[];
+  if ('records' in body) {
+    const list = (body as { records: unknown }).records;
+    if (!Array.isArray(list)) return whole('invalid_payload', '"records" must be an array');
+    if (list.length > MAX_RECORDS_PER_MESSAGE) {
+      return whole('too_many_records', `${list.length} records; the limit is ${MAX_RECORDS_PER_MESSAGE} per message`);
+    }
+    items = list;
+  } else {
+    items = [body];
+  }
+
+  const schema = recordSchemas[stream] as unknown as z.ZodType<TelemetryRecord[S]>;
+  const latest = now.getTime() + MAX_FUTURE_MS;
+  const result: ParsedPayload<S> = { records: [], rejected: [] };
+  items.forEach((item, index) => {
+    const where = items.length > 1 || 'records' in body ? `records[${index}]` : 'record';
+    const parsed = schema.safeParse(item);
+    if (!parsed.success) {
+      const issue = parsed.error.issues[0]!;
+      const path = issue.path.length ? `.${issue.path.join('.')}` : '';
+      const nonFinite = parsed.error.issues.some(
+        (i) => i.code === 'invalid_type' && /Infinity|NaN/.test(String((i as { received?: unknown }).received)),
+      );
+      result.rejected.push({
+        reason: nonFinite ? 'non_finite_number' : 'invalid_record',
+        detail: `${where}${path}: ${issue.message}`,
+        payload: item,
+      });
+      return;
+    }
+    if (Date.parse(parsed.data.t) > latest) {
+      result.rejected.push({
+        reason: 'future_timestamp',
+        detail: `${where}.t: ${parsed.data.t} is more than ${MAX_FUTURE_MS / 60_000} minutes ahead of the shore clock`,
+        payload: item,
+      });
+      return;
+    }
+    result.records.push(parsed.data);
+  });
+  return result;
+}

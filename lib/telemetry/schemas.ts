@@ -1,0 +1,188 @@
+import { z } from 'zod';
+
+/**
+ * The wire contract telemetry-v1 as zod schemas: the one source of truth for
+ * field names, ranges and types, shared by ingest/, seed/ and the tests.
+ * Unknown fields are ignored (zod strips them). Optional fields that are
+ * missing stay undefined here and become NULL in the store — never 0.
+ * Choices the contract leaves open are written down in docs/telemetry.md.
+ */
+
+export const STREAMS = ['station', 'thrusters', 'power', 'refs', 'track'] as const;
+export type Stream = (typeof STREAMS)[number];
+
+export const VESSEL_KEY = /^[a-z0-9][a-z0-9-]{1,31}$/;
+export const UNIT_ID = /^[A-Za-z0-9_-]{1,16}$/;
+/** ISO 8601 UTC with `Z`, optional milliseconds: 2026-03-04T05:06:00Z. */
+const ISO_UTC = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}(\.\d{1,3})?Z$/;
+
+/** Tolerance for sums the gateway rounds (load bands vs run time), seconds. Common practice, no source. */
+export const SUM_TOLERANCE_S = 1;
+
+const num = z.number();
+const nonNegative = z.number().min(0);
+const count = z.number().int().min(0);
+const angle = z.number().min(0).max(360);
+const unitId = z.string().regex(UNIT_ID, 'must match ^[A-Za-z0-9_-]{1,16}$');
+
+const timestamp = z
+  .string()
+  .regex(ISO_UTC, 'must be ISO 8601 UTC ending in Z, e.g. 2026-03-04T05:06:00Z')
+  .refine((s) => !Number.isNaN(Date.parse(s)), 'is not a real date and time');
+
+const dt = z.number().int().min(1).max(3600);
+
+const base = { v: z.literal(1), t: timestamp, dt };
+
+/** A value measured over the interval may not exceed the interval length. */
+function withinInterval<T extends { dt: number }>(value: (r: T) => (number | undefined)[], label: string) {
+  return (record: T, ctx: z.RefinementCtx) => {
+    for (const v of value(record)) {
+      if (v !== undefined && v > record.dt) {
+        ctx.addIssue({ code: 'custom', message: `${label} must be ≤ dt (${record.dt})` });
+        return;
+      }
+    }
+  };
+}
+
+function uniqueIds<T extends { id: string }>(label: string) {
+  return (items: T[], ctx: z.RefinementCtx) => {
+    const seen = new Set<string>();
+    for (const item of items) {
+      if (seen.has(item.id)) ctx.addIssue({ code: 'custom', message: `duplicate ${label} id ${item.id}` });
+      seen.add(item.id);
+    }
+  };
+}
+
+export const stationRecord = z
+  .object({
+    ...base,
+    mode: z.enum(['auto_position', 'auto_track', 'joystick', 'manual', 'standby']),
+    dp_s: nonNegative,
+    n: count,
+    sp: z.object({ lat: z.number().min(-90).max(90), lon: z.number().min(-180).max(180), hdg: angle }).optional(),
+    err: z
+      .object({
+        north_mean: num.optional(),
+        east_mean: num.optional(),
+        r_mean: nonNegative.optional(),
+        r_rms: nonNegative.optional(),
+        r_max: nonNegative.optional(),
+        hist: z.array(count).max(101).optional(),
+      })
+      .optional(),
+    hdg_err: z
+      .object({
+        mean: z.number().min(-180).max(180).optional(),
+        rms: z.number().min(0).max(180).optional(),
+        max_abs: z.number().min(0).max(180).optional(),
+      })
+      .optional(),
+    env: z
+      .object({
+        wind_ms: nonNegative.optional(),
+        wind_gust_ms: nonNegative.optional(),
+        wind_from_deg: angle.optional(),
+        current_ms: nonNegative.optional(),
+        current_to_deg: angle.optional(),
+        residual_kn: nonNegative.optional(),
+        residual_to_deg: angle.optional(),
+      })
+      .optional(),
+  })
+  .superRefine(withinInterval((r) => [r.dp_s], 'dp_s'))
+  .superRefine((r, ctx) => {
+    const hist = r.err?.hist;
+    if (hist && hist.reduce((a, b) => a + b, 0) !== r.n) {
+      ctx.addIssue({ code: 'custom', path: ['err', 'hist'], message: `counts must add up to n (${r.n})` });
+    }
+  });
+
+export const thrusterUnit = z
+  .object({
+    id: unitId,
+    run_s: nonNegative,
+    starts: count,
+    rpm: num.optional(),
+    pitch_pct: z.number().min(-100).max(100).optional(),
+    load_pct_mean: nonNegative.optional(),
+    load_pct_max: nonNegative.optional(),
+    thrust_kn: num.optional(),
+    power_kw: nonNegative.optional(),
+    azimuth_deg: angle.optional(),
+    azimuth_travel_deg: nonNegative.optional(),
+    load_band_s: z.array(nonNegative).length(11).optional(),
+  })
+  .superRefine((u, ctx) => {
+    if (!u.load_band_s) return;
+    const sum = u.load_band_s.reduce((a, b) => a + b, 0);
+    if (Math.abs(sum - u.run_s) > SUM_TOLERANCE_S) {
+      ctx.addIssue({ code: 'custom', path: ['load_band_s'], message: `must add up to run_s (${u.run_s}), got ${sum}` });
+    }
+  });
+
+export const thrustersRecord = z
+  .object({ ...base, units: z.array(thrusterUnit).min(1).superRefine(uniqueIds('thruster')) })
+  .superRefine(withinInterval((r) => r.units.map((u) => u.run_s), 'run_s'));
+
+export const powerBus = z.object({
+  id: unitId,
+  kw_mean: nonNegative.optional(),
+  kw_max: nonNegative.optional(),
+  kw_available: nonNegative.optional(),
+  gens_online: count.optional(),
+  limit_s: nonNegative.optional(),
+  limit_events: count.optional(),
+  blackout: z.boolean().optional(),
+});
+
+export const powerRecord = z
+  .object({ ...base, buses: z.array(powerBus).min(1).superRefine(uniqueIds('bus')) })
+  .superRefine(withinInterval((r) => r.buses.map((b) => b.limit_s), 'limit_s'));
+
+export const refSystem = z.object({
+  id: unitId,
+  kind: z.enum(['gnss', 'hydroacoustic', 'laser', 'radar', 'taut_wire', 'other']).optional(),
+  online_s: nonNegative.optional(),
+  weight: z.number().min(0).max(1).optional(),
+  sd_m: nonNegative.optional(),
+  rejected: count.optional(),
+});
+
+export const refsRecord = z
+  .object({ ...base, systems: z.array(refSystem).min(1).superRefine(uniqueIds('reference system')) })
+  .superRefine(withinInterval((r) => r.systems.map((s) => s.online_s), 'online_s'));
+
+export const trackRecord = z.object({
+  v: z.literal(1),
+  t: timestamp,
+  lat: z.number().min(-90).max(90),
+  lon: z.number().min(-180).max(180),
+  hdg: angle.optional(),
+  sp_lat: z.number().min(-90).max(90).optional(),
+  sp_lon: z.number().min(-180).max(180).optional(),
+  sp_hdg: angle.optional(),
+});
+
+export const recordSchemas = {
+  station: stationRecord,
+  thrusters: thrustersRecord,
+  power: powerRecord,
+  refs: refsRecord,
+  track: trackRecord,
+} as const;
+
+export type StationRecord = z.infer<typeof stationRecord>;
+export type ThrustersRecord = z.infer<typeof thrustersRecord>;
+export type PowerRecord = z.infer<typeof powerRecord>;
+export type RefsRecord = z.infer<typeof refsRecord>;
+export type TrackRecord = z.infer<typeof trackRecord>;
+export type TelemetryRecord = {
+  station: StationRecord;
+  thrusters: ThrustersRecord;
+  power: PowerRecord;
+  refs: RefsRecord;
+  track: TrackRecord;
+};
