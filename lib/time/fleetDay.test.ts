@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { fleetDay } from './fleetDay';
+import { addDays, fleetDay } from './fleetDay';
 
 describe('fleetDay', () => {
   it('is the UTC date in UTC', () => {
@@ -14,5 +14,13 @@ describe('fleetDay', () => {
     expect(fleetDay('2026-03-28T23:00:00Z', 'Europe/Oslo')).toBe('2026-03-29');
     expect(fleetDay('2026-03-29T21:59:59Z', 'Europe/Oslo')).toBe('2026-03-29');
     expect(fleetDay('2026-03-29T22:00:00Z', 'Europe/Oslo')).toBe('2026-03-30');
+  });
+});
+
+describe('addDays', () => {
+  it('steps across month, year and leap-day boundaries', () => {
+    expect(addDays('2026-03-01', -1)).toBe('2026-02-28');
+    expect(addDays('2028-02-28', 1)).toBe('2028-02-29');
+    expect(addDays('2026-12-31', 1)).toBe('2027-01-01');
   });
 });

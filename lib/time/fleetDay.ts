@@ -13,3 +13,10 @@ export function fleetDay(instant: Date | string, timeZone: string): string {
   }
   return f.format(typeof instant === 'string' ? new Date(instant) : instant);
 }
+
+/** Calendar arithmetic on YYYY-MM-DD days (no time zone involved). */
+export function addDays(day: string, n: number): string {
+  const d = new Date(`${day}T00:00:00Z`);
+  d.setUTCDate(d.getUTCDate() + n);
+  return d.toISOString().slice(0, 10);
+}
