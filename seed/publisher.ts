@@ -51,7 +51,9 @@ export class DemoPublisher {
     const end = Math.floor(untilMs / 60_000) * 60_000;
     const start = end - days * 86_400_000;
     let count = 0;
-    for (const vessel of this.vessels) {
+    // Own generators: the live ones must keep seeing increasing times.
+    const vessels = this.options.fleet.vessels.map((v, i) => new DemoVessel(v, demoSite(i)));
+    for (const vessel of vessels) {
       // One day per pass keeps memory small for long histories.
       for (let dayStart = start; dayStart < end; dayStart += 86_400_000) {
         const batch: Record<(typeof STREAMS)[number], unknown[]> = { station: [], thrusters: [], power: [], refs: [] };

@@ -34,7 +34,15 @@ export const JOBS = {
 
 export async function startJobRunner(options: JobRunnerOptions): Promise<JobRunner> {
   const { pool, timeZone, log } = options;
-  const boss = new PgBoss({ connectionString: options.connectionString, schema: 'pgboss', max: 4, application_name: 'holdfast-jobs' });
+  const boss = new PgBoss({
+    connectionString: options.connectionString,
+    schema: 'pgboss',
+    max: 4,
+    application_name: 'holdfast-jobs',
+    // Check the cron table often, so a minute's tick is not missed by much.
+    cronMonitorIntervalSeconds: 10,
+    cronWorkerIntervalSeconds: 5,
+  });
   boss.on('error', (error) => log.warn(`job queue: ${error.message}`));
   await boss.start();
 

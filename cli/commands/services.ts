@@ -1,0 +1,59 @@
+import type { Config } from '../../lib/config';
+import { startJobRunner } from '../../lib/jobs/runner';
+import type { Logger } from '../../lib/log/logger';
+import { IngestWorker } from '../../ingest/worker';
+import { openStore } from '../runtime';
+
+/** Block until SIGINT or SIGTERM, then run `stop`. */
+function untilSignal(stop: () => Promise<void>): Promise<void> {
+  return new Promise((resolve) => {
+    const onSignal = () => void stop().finally(resolve);
+    process.once('SIGINT', onSignal);
+    process.once('SIGTERM', onSignal);
+  });
+}
+
+function requireSetting(config: Config, name: 'DATABASE_URL' | 'MQTT_URL'): string {
+  const value = config[name];
+  if (!value) throw new Error(`Setting ${name}: required when running this process on its own`);
+  return value;
+}
+
+/** `holdfast ingest`: one ingest worker, for production deployments. */
+export async function ingestCommand(config: Config, log: Logger): Promise<void> {
+  requireSetting(config, 'DATABASE_URL');
+  const mqttUrl = requireSetting(config, 'MQTT_URL');
+  const store = await openStore(config, log.child('store'));
+  const worker = new IngestWorker({
+    pool: store.pool,
+    mqttUrl,
+    mqttUsername: config.MQTT_USERNAME,
+    mqttPassword: config.MQTT_PASSWORD,
+    clientId: config.MQTT_CLIENT_ID,
+    topicRoot: config.MQTT_TOPIC_ROOT,
+    fleetTimeZone: config.FLEET_TIME_ZONE,
+    log: log.child('ingest'),
+  });
+  await worker.start();
+  await untilSignal(async () => {
+    await worker.stop();
+    await store.close();
+  });
+}
+
+/** `holdfast jobs`: the scheduled job runner, for production deployments. */
+export async function jobsCommand(config: Config, log: Logger): Promise<void> {
+  requireSetting(config, 'DATABASE_URL');
+  const store = await openStore(config, log.child('store'));
+  const runner = await startJobRunner({ connectionString: store.url, pool: store.pool, timeZone: config.FLEET_TIME_ZONE, log: log.child('jobs') });
+  await untilSignal(async () => {
+    await runner.stop();
+    await store.close();
+  });
+}
+
+/** `holdfast migrate`: bring the store up to date and exit. */
+export async function migrateCommand(config: Config, log: Logger): Promise<void> {
+  const store = await openStore(config, log.child('store'));
+  await store.close();
+}

@@ -1,0 +1,61 @@
+import { parseArgs } from 'node:util';
+import { ConfigError, loadConfig } from '../lib/config';
+import { createLogger } from '../lib/log/logger';
+import { FleetFileError } from '../lib/register/fleetFile';
+import { fleetImportCommand } from './commands/fleetImport';
+import { ingestCommand, jobsCommand, migrateCommand } from './commands/services';
+import { startCommand } from './commands/start';
+
+const HELP = `holdfast — fleet station-keeping analytics (advisory, after the fact)
+
+Usage: holdfast <command> [options]     (or: npm run holdfast -- <command> …)
+
+  start [--no-web]        run everything: store, broker, ingest, jobs, demo, web app
+  migrate                 apply pending database migrations
+  fleet import FILE       import a fleet register file (JSON or YAML, fleet-v1)
+  ingest                  run one ingest worker (needs DATABASE_URL and MQTT_URL)
+  jobs                    run the job scheduler (needs DATABASE_URL)
+  help                    this text
+
+Settings come from the environment; see README.md.`;
+
+async function main(argv: string[]): Promise<void> {
+  const { positionals, values } = parseArgs({
+    args: argv,
+    allowPositionals: true,
+    options: { 'no-web': { type: 'boolean', default: false }, help: { type: 'boolean', short: 'h' } },
+  });
+  const [command, ...rest] = positionals;
+  if (!command || command === 'help' || values.help) {
+    console.log(HELP);
+    return;
+  }
+  const config = loadConfig();
+  const log = createLogger(config.LOG_LEVEL);
+  switch (command) {
+    case 'start':
+      return startCommand(config, log, { web: !values['no-web'] });
+    case 'migrate':
+      return migrateCommand(config, log);
+    case 'ingest':
+      return ingestCommand(config, log);
+    case 'jobs':
+      return jobsCommand(config, log);
+    case 'fleet':
+      if (rest[0] === 'import' && rest[1]) return fleetImportCommand(config, log, rest[1]);
+      throw new UsageError('usage: holdfast fleet import FILE');
+    default:
+      throw new UsageError(`unknown command "${command}"; try: holdfast help`);
+  }
+}
+
+class UsageError extends Error {}
+
+main(process.argv.slice(2)).catch((error: unknown) => {
+  // Expected failures print one clear message; anything else shows its stack.
+  if (error instanceof ConfigError || error instanceof UsageError) console.error(error.message);
+  else if (error instanceof FleetFileError) console.error(error.message);
+  else if (error instanceof Error && error.message.startsWith('Setting ')) console.error(error.message);
+  else console.error(error instanceof Error ? (error.stack ?? error.message) : String(error));
+  process.exit(error instanceof UsageError ? 2 : 1);
+});

@@ -1,0 +1,82 @@
+import { spawn, type ChildProcessWithoutNullStreams } from 'node:child_process';
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { createTestDatabase, type TestDatabase } from './helpers/db';
+import { uniqueSuffix } from './helpers/fleet';
+import { waitFor } from './helpers/waitFor';
+
+/**
+ * `holdfast start` against an external PostgreSQL and broker (the machine's
+ * when TEST_* are set): it must start no embedded service, write real rows
+ * through MQTT, compute daily rows, and stop cleanly on SIGINT.
+ */
+function holdfast(args: string[], env: NodeJS.ProcessEnv): ChildProcessWithoutNullStreams {
+  return spawn(process.execPath, ['bin/holdfast.mjs', ...args], { env: { ...process.env, ...env } });
+}
+
+describe('holdfast start (without the web app)', () => {
+  const suffix = uniqueSuffix();
+  let db: TestDatabase;
+  let child: ChildProcessWithoutNullStreams;
+  let output = '';
+
+  beforeAll(async () => {
+    db = await createTestDatabase();
+    child = holdfast(['start', '--no-web'], {
+      DATABASE_URL: db.url,
+      MQTT_URL: inject('mqttUrl'),
+      MQTT_TOPIC_ROOT: `start-${suffix}/v1`,
+      MQTT_CLIENT_ID: `holdfast-start-${suffix}`,
+      HOLDFAST_DATA_DIR: `/tmp/holdfast-start-${suffix}`,
+      HOLDFAST_DEMO_INTERVAL_S: '1',
+      HOLDFAST_DEMO_HISTORY_DAYS: '1',
+    });
+    child.stdout.on('data', (d) => (output += d));
+    child.stderr.on('data', (d) => (output += d));
+    await waitFor(() => output.includes('Holdfast is running'), 60_000, 'the start-up line');
+  });
+  afterAll(async () => {
+    if (child && child.exitCode === null) child.kill('SIGKILL');
+    await db?.drop();
+  });
+
+  it('uses the given database and broker and starts no embedded service', () => {
+    expect(output).not.toMatch(/embedded PostgreSQL|embedded MQTT broker/);
+    expect(output).toContain('imported the demo fleet (12 vessels, 2 campaigns)');
+  });
+
+  it('stores demo telemetry that arrives over MQTT, and keeps storing it', async () => {
+    const count = async () => (await db.pool.query('SELECT count(*)::int AS n FROM ts_station')).rows[0].n as number;
+    await waitFor(async () => (await count()) > 12 * 1440, 60_000, 'the demo history');
+    const first = await count();
+    await waitFor(async () => (await count()) >= first + 24, 20_000, 'live records');
+  });
+
+  it('computes daily rows for the days that received records', async () => {
+    await waitFor(
+      async () => (await db.pool.query('SELECT count(*)::int AS n FROM daily_vessel')).rows[0].n >= 12,
+      90_000,
+      'daily rows',
+    );
+  }, 100_000);
+
+  it('stops everything on SIGINT', async () => {
+    const exited = new Promise<number | null>((resolve) => child.once('exit', (code) => resolve(code)));
+    child.kill('SIGINT');
+    // 130 = 128 + SIGINT: the conventional status of a program stopped by Ctrl-C.
+    expect([0, 130]).toContain(await exited);
+    expect(output).toContain('stopped');
+  });
+});
+
+describe('holdfast with a bad setting', () => {
+  it('stops at start with one line naming the setting', async () => {
+    const child = holdfast(['start'], { FLEET_TIME_ZONE: 'Atlantis/Lost' });
+    let stderr = '';
+    child.stderr.on('data', (d) => (stderr += d));
+    const code = await new Promise<number | null>((resolve) => child.once('exit', resolve));
+    expect(code).toBe(1);
+    expect(stderr.trim().split('\n')).toEqual([
+      'Setting FLEET_TIME_ZONE: must be an IANA time zone name such as UTC or Europe/Oslo (got "Atlantis/Lost")',
+    ]);
+  });
+});
