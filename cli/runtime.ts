@@ -8,6 +8,7 @@ import { pgExecutor } from '../lib/db/executor';
 import { migrate } from '../lib/db/migrate';
 import { createPool, type Pool } from '../lib/db/pool';
 import type { Logger } from '../lib/log/logger';
+import { IngestWorker } from '../ingest/worker';
 
 /**
  * Where the running `holdfast start` left its embedded services, so that other
@@ -113,4 +114,18 @@ async function ensureDatabase(serverUrl: string, name: string): Promise<string> 
   const u = new URL(serverUrl);
   u.pathname = `/${name}`;
   return u.toString();
+}
+
+/** An ingest worker configured from the settings, on `pool`, reading `mqttUrl`. */
+export function ingestWorkerFor(config: Config, pool: Pool, mqttUrl: string, log: Logger): IngestWorker {
+  return new IngestWorker({
+    pool,
+    mqttUrl,
+    mqttUsername: config.MQTT_USERNAME,
+    mqttPassword: config.MQTT_PASSWORD,
+    clientId: config.MQTT_CLIENT_ID,
+    topicRoot: config.MQTT_TOPIC_ROOT,
+    fleetTimeZone: config.FLEET_TIME_ZONE,
+    log: log.child('ingest'),
+  });
 }

@@ -1,8 +1,7 @@
 import type { Config } from '../../lib/config';
 import { startJobRunner } from '../../lib/jobs/runner';
 import type { Logger } from '../../lib/log/logger';
-import { IngestWorker } from '../../ingest/worker';
-import { openStore } from '../runtime';
+import { ingestWorkerFor, openStore } from '../runtime';
 
 /** Block until SIGINT or SIGTERM, then run `stop`. */
 function untilSignal(stop: () => Promise<void>): Promise<void> {
@@ -24,16 +23,7 @@ export async function ingestCommand(config: Config, log: Logger): Promise<void> 
   requireSetting(config, 'DATABASE_URL');
   const mqttUrl = requireSetting(config, 'MQTT_URL');
   const store = await openStore(config, log.child('store'));
-  const worker = new IngestWorker({
-    pool: store.pool,
-    mqttUrl,
-    mqttUsername: config.MQTT_USERNAME,
-    mqttPassword: config.MQTT_PASSWORD,
-    clientId: config.MQTT_CLIENT_ID,
-    topicRoot: config.MQTT_TOPIC_ROOT,
-    fleetTimeZone: config.FLEET_TIME_ZONE,
-    log: log.child('ingest'),
-  });
+  const worker = ingestWorkerFor(config, store.pool, mqttUrl, log);
   await worker.start();
   await untilSignal(async () => {
     await worker.stop();

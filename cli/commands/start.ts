@@ -8,9 +8,8 @@ import type { Logger } from '../../lib/log/logger';
 import { readFleetFile } from '../../lib/register/fleetFile';
 import { importFleet } from '../../lib/register/importFleet';
 import { createPrisma } from '../../lib/db/prisma';
-import { IngestWorker } from '../../ingest/worker';
 import { DemoPublisher } from '../../seed/publisher';
-import { openStore, removeRuntimeFile, writeRuntimeFile } from '../runtime';
+import { ingestWorkerFor, openStore, removeRuntimeFile, writeRuntimeFile } from '../runtime';
 import { buildWeb, isBuildFresh, startWeb, stopChild, waitForHttp } from '../webServer';
 
 export const DEMO_FLEET_FILE = 'seed/fleet.json';
@@ -68,16 +67,7 @@ export async function startCommand(config: Config, log: Logger, options: StartOp
     log.info(`embedded MQTT broker on ${broker.url}`);
   }
 
-  const worker = new IngestWorker({
-    pool: store.pool,
-    mqttUrl,
-    mqttUsername: config.MQTT_USERNAME,
-    mqttPassword: config.MQTT_PASSWORD,
-    clientId: config.MQTT_CLIENT_ID,
-    topicRoot: config.MQTT_TOPIC_ROOT,
-    fleetTimeZone: config.FLEET_TIME_ZONE,
-    log: log.child('ingest'),
-  });
+  const worker = ingestWorkerFor(config, store.pool, mqttUrl, log);
   await worker.start();
   stops.push({ name: 'ingest', stop: () => worker.stop() });
 
