@@ -25,12 +25,14 @@ export function isBuildFresh(distDir = '.next'): boolean {
   return existsSync(buildId) && statSync(buildId).mtimeMs > newestMtime(SOURCES);
 }
 
-function nextEnv(extra: NodeJS.ProcessEnv): NodeJS.ProcessEnv {
-  return { ...process.env, NEXT_TELEMETRY_DISABLED: '1', ...extra };
+type Env = Record<string, string | undefined>;
+
+function nextEnv(extra: Env): NodeJS.ProcessEnv {
+  return { ...process.env, NEXT_TELEMETRY_DISABLED: '1', ...extra } as NodeJS.ProcessEnv;
 }
 
 /** `next build`, output shown; rejects when the build fails. */
-export function buildWeb(env: NodeJS.ProcessEnv = {}): Promise<void> {
+export function buildWeb(env: Env = {}): Promise<void> {
   return new Promise((resolve, reject) => {
     const child = spawn(process.execPath, [NEXT_BIN, 'build'], { stdio: 'inherit', env: nextEnv(env) });
     child.on('exit', (code) => (code === 0 ? resolve() : reject(new Error(`next build failed (exit code ${code})`))));
@@ -38,7 +40,7 @@ export function buildWeb(env: NodeJS.ProcessEnv = {}): Promise<void> {
 }
 
 /** `next start` on `port`; the process is the caller's to stop. */
-export function startWeb(port: number, env: NodeJS.ProcessEnv): ChildProcess {
+export function startWeb(port: number, env: Env): ChildProcess {
   return spawn(process.execPath, [NEXT_BIN, 'start', '-p', String(port)], {
     stdio: ['ignore', 'inherit', 'inherit'],
     env: nextEnv({ ...env, PORT: String(port) }),

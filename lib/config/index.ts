@@ -17,7 +17,7 @@ export class ConfigError extends Error {
  * Parse the environment once. Empty strings count as unset, so
  * `DATABASE_URL= npm start` means "use the embedded database".
  */
-export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
+export function loadConfig(env: Record<string, string | undefined> = process.env): Config {
   const set = Object.fromEntries(Object.entries(env).filter(([, v]) => v !== undefined && v.trim() !== ''));
   const result = envSchema.safeParse(set);
   if (result.success) return result.data;
