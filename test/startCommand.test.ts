@@ -9,7 +9,7 @@ import { waitFor } from './helpers/waitFor';
  * when TEST_* are set): it must start no embedded service, write real rows
  * through MQTT, compute daily rows, and stop cleanly on SIGINT.
  */
-function holdfast(args: string[], env: NodeJS.ProcessEnv): ChildProcessWithoutNullStreams {
+function holdfast(args: string[], env: Record<string, string>): ChildProcessWithoutNullStreams {
   return spawn(process.execPath, ['bin/holdfast.mjs', ...args], { env: { ...process.env, ...env } });
 }
 

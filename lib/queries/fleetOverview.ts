@@ -73,7 +73,7 @@ function perUnitCtes(stream: string, table: PerUnitTable): string {
       FROM ${stream}_units u
       CROSS JOIN LATERAL (
         SELECT max(x.t) AS t FROM ${table} x
-         WHERE x.vessel_id = u.vessel_id AND x.unit_id = u.unit_id) l
+         WHERE x.vessel_id = u.vessel_id AND x.unit_id = u.unit_id AND x.t <= $1) l
      GROUP BY u.vessel_id
   ),
   ${stream}_records AS (
