@@ -3,7 +3,8 @@ import { existsSync, readdirSync, statSync } from 'node:fs';
 import path from 'node:path';
 
 const NEXT_BIN = path.resolve('node_modules/next/dist/bin/next');
-const SOURCES = ['app', 'lib', 'next.config.js', 'package-lock.json'];
+/** What a production build of the web app is made from. */
+export const WEB_SOURCES = ['app', 'lib', 'next.config.js', 'package-lock.json'];
 
 /** Newest modification time among files under `paths` (0 when none). */
 export function newestMtime(paths: string[]): number {
@@ -20,9 +21,9 @@ export function newestMtime(paths: string[]): number {
 }
 
 /** True when `distDir` holds a production build newer than every web source. */
-export function isBuildFresh(distDir = '.next'): boolean {
-  const buildId = path.join(distDir, 'BUILD_ID');
-  return existsSync(buildId) && statSync(buildId).mtimeMs > newestMtime(SOURCES);
+export function isBuildFresh(distDir = '.next', root = '.'): boolean {
+  const buildId = path.join(root, distDir, 'BUILD_ID');
+  return existsSync(buildId) && statSync(buildId).mtimeMs > newestMtime(WEB_SOURCES.map((p) => path.join(root, p)));
 }
 
 type Env = Record<string, string | undefined>;

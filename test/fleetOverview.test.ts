@@ -52,38 +52,38 @@ describe('getFleetOverview', () => {
     );
 
     // Names sort differently from keys and insertion order.
-    const petrel = await vessel('nordic-petrel', 'Nordic Petrel', 'PSV', 2);
-    const tern = await vessel('atlantic-tern', 'Atlantic Tern', 'CSV', 3);
-    await vessel('fjord-osprey', 'Fjord Osprey', 'ROV support', 1);
+    const gull = await vessel('norrin-gull', 'Norrin Gull', 'PSV', 2);
+    const auk = await vessel('aldren-auk', 'Aldren Auk', 'CSV', 3);
+    await vessel('frennick-tern', 'Frennick Tern', 'ROV support', 1);
 
-    // Nordic Petrel: reporting now.
+    // Norrin Gull: reporting now.
     // station: 3 in the window; exactly 24 h ago and 30 h ago are outside.
-    for (const t of [now, ago(1 * MIN), ago(10 * MIN), ago(DAY), ago(30 * HOUR)]) await station(petrel, t);
+    for (const t of [now, ago(1 * MIN), ago(10 * MIN), ago(DAY), ago(30 * HOUR)]) await station(gull, t);
     // thrusters: three units at two times, one unit alone at a third time -> 3
     // records from 7 rows; one more 25 h ago is outside.
     for (const unit of ['T1', 'T2', 'T3']) {
-      await thruster(petrel, unit, ago(1 * MIN));
-      await thruster(petrel, unit, ago(2 * MIN));
+      await thruster(gull, unit, ago(1 * MIN));
+      await thruster(gull, unit, ago(2 * MIN));
     }
-    await thruster(petrel, 'T1', ago(3 * MIN));
-    await thruster(petrel, 'T2', ago(25 * HOUR));
+    await thruster(gull, 'T1', ago(3 * MIN));
+    await thruster(gull, 'T2', ago(25 * HOUR));
     // power: two buses at one time, one bus just inside the window -> 2.
-    await power(petrel, 'B1', ago(5 * MIN));
-    await power(petrel, 'B2', ago(5 * MIN));
-    await power(petrel, 'B1', ago(DAY - MIN));
+    await power(gull, 'B1', ago(5 * MIN));
+    await power(gull, 'B2', ago(5 * MIN));
+    await power(gull, 'B1', ago(DAY - MIN));
     // refs: only an old record -> 0.
-    await ref(petrel, 'R1', ago(2 * DAY));
+    await ref(gull, 'R1', ago(2 * DAY));
     // track: 4 in the window, and one stamped after `now` that is ignored.
-    for (const m of [1, 2, 3, 4]) await track(petrel, ago(m * MIN));
-    await track(petrel, new Date(now.getTime() + MIN));
+    for (const m of [1, 2, 3, 4]) await track(gull, ago(m * MIN));
+    await track(gull, new Date(now.getTime() + MIN));
 
-    // Atlantic Tern: silent for three days; its latest record is a ref unit's.
-    await station(tern, ago(5 * DAY));
-    await ref(tern, 'R1', ago(4 * DAY));
-    await ref(tern, 'R2', ago(3 * DAY));
-    await ref(tern, 'R1', ago(3 * DAY));
+    // Aldren Auk: silent for three days; its latest record is a ref unit's.
+    await station(auk, ago(5 * DAY));
+    await ref(auk, 'R1', ago(4 * DAY));
+    await ref(auk, 'R2', ago(3 * DAY));
+    await ref(auk, 'R1', ago(3 * DAY));
 
-    // Fjord Osprey: registered, never reported.
+    // Frennick Tern: registered, never reported.
 
     // Telemetry of a vessel id that is not registered is not shown.
     await station(999_999, ago(MIN));
@@ -95,24 +95,24 @@ describe('getFleetOverview', () => {
   it('returns every registered vessel by name with its last record and 24 h record counts', async () => {
     expect(await getFleetOverview(db.pool, now)).toEqual([
       {
-        key: 'atlantic-tern',
-        name: 'Atlantic Tern',
+        key: 'aldren-auk',
+        name: 'Aldren Auk',
         type: 'CSV',
         dpClass: 3,
         lastRecordAt: ago(3 * DAY),
         records24h: zero,
       },
       {
-        key: 'fjord-osprey',
-        name: 'Fjord Osprey',
+        key: 'frennick-tern',
+        name: 'Frennick Tern',
         type: 'ROV support',
         dpClass: 1,
         lastRecordAt: null,
         records24h: zero,
       },
       {
-        key: 'nordic-petrel',
-        name: 'Nordic Petrel',
+        key: 'norrin-gull',
+        name: 'Norrin Gull',
         type: 'PSV',
         dpClass: 2,
         lastRecordAt: now,
@@ -124,24 +124,24 @@ describe('getFleetOverview', () => {
   it('reads the 24 h ending at the given instant and ignores later records', async () => {
     // Two hours earlier the window is (now - 26 h, now - 2 h].
     const earlier = await getFleetOverview(db.pool, ago(2 * HOUR));
-    const petrel = earlier.find((r) => r.key === 'nordic-petrel');
-    expect(petrel?.lastRecordAt).toEqual(ago(DAY - MIN));
-    expect(petrel?.records24h).toEqual({ station: 1, thrusters: 1, power: 1, refs: 0, track: 0 });
+    const gull = earlier.find((r) => r.key === 'norrin-gull');
+    expect(gull?.lastRecordAt).toEqual(ago(DAY - MIN));
+    expect(gull?.records24h).toEqual({ station: 1, thrusters: 1, power: 1, refs: 0, track: 0 });
 
-    // Before Atlantic Tern's refs, its last record is the station record.
+    // Before Aldren Auk's refs, its last record is the station record.
     const before = await getFleetOverview(db.pool, ago(4 * DAY + HOUR));
-    expect(before.find((r) => r.key === 'atlantic-tern')?.lastRecordAt).toEqual(ago(5 * DAY));
+    expect(before.find((r) => r.key === 'aldren-auk')?.lastRecordAt).toEqual(ago(5 * DAY));
   });
 
   it('counts a record once when several units report the same interval', async () => {
-    const v = ids['fjord-osprey']!;
+    const v = ids['frennick-tern']!;
     for (const unit of ['T1', 'T2', 'T3', 'T4']) await thruster(v, unit, ago(MIN));
     for (const unit of ['B1', 'B2']) await power(v, unit, ago(MIN));
     for (const unit of ['GNSS1', 'GNSS2', 'HPR']) await ref(v, unit, ago(2 * MIN));
-    const osprey = (await getFleetOverview(db.pool, now)).find((r) => r.key === 'fjord-osprey');
-    expect(osprey).toEqual({
-      key: 'fjord-osprey',
-      name: 'Fjord Osprey',
+    const frennick = (await getFleetOverview(db.pool, now)).find((r) => r.key === 'frennick-tern');
+    expect(frennick).toEqual({
+      key: 'frennick-tern',
+      name: 'Frennick Tern',
       type: 'ROV support',
       dpClass: 1,
       lastRecordAt: ago(MIN),

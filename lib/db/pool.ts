@@ -9,8 +9,20 @@ pg.types.setTypeParser(20, (value) => Number(value));
 
 export type Pool = pg.Pool;
 
-export function createPool(connectionString: string, max = 10): pg.Pool {
-  const pool = new pg.Pool({ connectionString, max, application_name: 'holdfast' });
+export interface PoolOptions {
+  max?: number;
+  /** Give up on a connection attempt after this long (default: wait forever). */
+  connectTimeoutMs?: number;
+}
+
+export function createPool(connectionString: string, options: PoolOptions | number = {}): pg.Pool {
+  const { max = 10, connectTimeoutMs } = typeof options === 'number' ? { max: options } : options;
+  const pool = new pg.Pool({
+    connectionString,
+    max,
+    application_name: 'holdfast',
+    ...(connectTimeoutMs ? { connectionTimeoutMillis: connectTimeoutMs } : {}),
+  });
   // An idle client losing its connection must not crash the process; the
   // next query reconnects.
   pool.on('error', () => {});

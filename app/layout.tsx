@@ -1,0 +1,54 @@
+import type { Metadata, Viewport } from 'next';
+import Link from 'next/link';
+import type { ReactNode } from 'react';
+import './globals.css';
+
+export const metadata: Metadata = {
+  title: { default: 'Holdfast', template: '%s · Holdfast' },
+  description: 'Fleet station-keeping analytics for dynamically positioned vessels',
+};
+
+export const viewport: Viewport = {
+  width: 'device-width',
+  initialScale: 1,
+  themeColor: '#153a47',
+};
+
+export default function RootLayout({ children }: { children: ReactNode }) {
+  return (
+    <html lang="en">
+      <body>
+        <a className="skip-link" href="#main">
+          Skip to content
+        </a>
+        <header className="site-header">
+          <div className="wrap site-header__inner">
+            <Link className="brand" href="/">
+              <svg className="brand__mark" viewBox="0 0 32 32" aria-hidden="true" focusable="false">
+                <circle cx="16" cy="16" r="11" fill="none" stroke="currentColor" strokeWidth="2.4" strokeDasharray="3.6 2.6" />
+                <circle cx="16" cy="16" r="3.6" fill="currentColor" />
+              </svg>
+              <span className="brand__name">Holdfast</span>
+            </Link>
+            <span className="site-header__tagline">Station-keeping analytics for DP fleets</span>
+          </div>
+        </header>
+        <main id="main" className="wrap site-main" tabIndex={-1}>
+          {children}
+        </main>
+        <footer className="site-footer">
+          <div className="wrap">
+            <p className="caution" data-testid="caution">
+              <strong className="caution__label">Caution</strong>
+              <span>
+                Holdfast is advisory and after the fact. It is not part of any DP control system and not a class or
+                compliance tool; follow your vessel's DP documentation, class rules, industry guidance and licensed
+                practice.
+              </span>
+            </p>
+          </div>
+        </footer>
+      </body>
+    </html>
+  );
+}
