@@ -1,11 +1,15 @@
-import type { Pool, PoolClient } from 'pg';
-import { parsePayload, type Rejection } from '../lib/telemetry/parsePayload';
+import type { Pool } from 'pg';
+import { parsePayload } from '../lib/telemetry/parsePayload';
+import type { Stream } from '../lib/telemetry/schemas';
 import { parseTopic } from '../lib/telemetry/topic';
-import { forgetKnownPartitions, writeBatches } from './storeWriter';
+import {
+  QUARANTINE_PAYLOAD_CHARS,
+  forgetKnownPartitions,
+  writeMessages,
+  type PreparedMessage,
+  type WriteResult,
+} from './storeWriter';
 import type { VesselDirectory } from './vesselDirectory';
-
-/** Quarantined payloads are cut to this many characters (docs/telemetry.md). */
-export const QUARANTINE_PAYLOAD_CHARS = 65_536;
 
 export interface HandleResult {
   inserted: number;
@@ -16,20 +20,17 @@ export interface HandleResult {
 export interface IngestCounters extends HandleResult {
   messages: number;
   byReason: Record<string, number>;
-}
-
-interface Quarantined extends Rejection {
-  vesselKey?: string;
-  stream?: string;
+  /** Rows stored and duplicates skipped, per stream. */
+  byStream: Partial<Record<Stream, { inserted: number; duplicates: number }>>;
 }
 
 /**
- * Turns one MQTT message into stored rows and quarantined rejections, in one
- * transaction: when `handle` resolves, everything in the message is committed
- * and the message may be acknowledged.
+ * Reads MQTT messages into what must be stored and what must be quarantined,
+ * and keeps the worker's counters. `handle` stores one message on its own
+ * (one transaction); the ingest pipeline batches many through `read`.
  */
 export class MessageHandler {
-  readonly counters: IngestCounters = { messages: 0, inserted: 0, duplicates: 0, quarantined: 0, byReason: {} };
+  readonly counters: IngestCounters = { messages: 0, inserted: 0, duplicates: 0, quarantined: 0, byReason: {}, byStream: {} };
 
   constructor(
     private readonly pool: Pool,
@@ -38,16 +39,14 @@ export class MessageHandler {
   ) {}
 
   async handle(topic: string, payload: Buffer, now = new Date()): Promise<HandleResult> {
-    const { rejected, batch } = await this.read(topic, payload, now);
+    const message = await this.read(topic, payload, now);
     const client = await this.pool.connect();
     try {
       await client.query('BEGIN');
-      const written = batch ? await writeBatches(client, [batch], this.options.fleetTimeZone) : { inserted: 0, duplicates: 0 };
-      await quarantine(client, topic, rejected);
+      const result = await writeMessages(client, [message], this.options.fleetTimeZone);
       await client.query('COMMIT');
-      const result = { ...written, quarantined: rejected.length };
-      this.count(result, rejected);
-      return result;
+      this.count([message], result);
+      return { inserted: result.inserted, duplicates: result.duplicates, quarantined: result.quarantined };
     } catch (error) {
       await client.query('ROLLBACK').catch(() => {});
       forgetKnownPartitions();
@@ -57,11 +56,16 @@ export class MessageHandler {
     }
   }
 
-  private async read(topic: string, payload: Buffer, now: Date) {
+  /** Topic and payload → the records to store and the rejections to quarantine (no writes). */
+  async read(topic: string, payload: Buffer, now: Date): Promise<PreparedMessage> {
+    return storable(await this.prepare(topic, payload, now), payload);
+  }
+
+  private async prepare(topic: string, payload: Buffer, now: Date): Promise<PreparedMessage> {
     const where = parseTopic(this.options.topicRoot, topic);
-    const whole = (r: Omit<Quarantined, 'payload'>) => ({
-      rejected: [{ ...r, payload: payload.subarray(0, QUARANTINE_PAYLOAD_CHARS).toString('utf8') }],
-      batch: undefined,
+    const whole = (r: { reason: PreparedMessage['rejected'][number]['reason']; vesselKey?: string; stream?: string; detail: string }) => ({
+      topic,
+      rejected: [{ ...r, topic, payload: payload.subarray(0, QUARANTINE_PAYLOAD_CHARS).toString('utf8') }],
     });
     if (!where.ok) {
       return whole({
@@ -77,37 +81,54 @@ export class MessageHandler {
     }
     const parsed = parsePayload(where.stream, payload, now);
     return {
-      rejected: parsed.rejected.map((r) => ({ ...r, vesselKey: where.vessel, stream: where.stream })),
+      topic,
+      rejected: parsed.rejected.map((r) => ({ ...r, topic, vesselKey: where.vessel, stream: where.stream })),
       batch: parsed.records.length ? { stream: where.stream, vesselId, records: parsed.records } : undefined,
     };
   }
 
-  private count(result: HandleResult, rejected: Quarantined[]) {
-    this.counters.messages += 1;
-    this.counters.inserted += result.inserted;
-    this.counters.duplicates += result.duplicates;
-    this.counters.quarantined += result.quarantined;
-    for (const r of rejected) this.counters.byReason[r.reason] = (this.counters.byReason[r.reason] ?? 0) + 1;
+  /** Add a committed flush of `messages` to the counters. */
+  count(messages: PreparedMessage[], result: WriteResult): void {
+    const c = this.counters;
+    c.messages += messages.length;
+    c.inserted += result.inserted;
+    c.duplicates += result.duplicates;
+    c.quarantined += result.quarantined;
+    for (const m of messages) for (const r of m.rejected) c.byReason[r.reason] = (c.byReason[r.reason] ?? 0) + 1;
+    for (const [stream, s] of Object.entries(result.byStream) as [Stream, { inserted: number; duplicates: number }][]) {
+      const total = (c.byStream[stream] ??= { inserted: 0, duplicates: 0 });
+      total.inserted += s.inserted;
+      total.duplicates += s.duplicates;
+    }
   }
 }
 
-async function quarantine(client: PoolClient, topic: string, rejected: Quarantined[]) {
-  if (rejected.length === 0) return;
-  await client.query(
-    `INSERT INTO quarantine (topic, vessel_key, stream, reason, detail, payload)
-     SELECT $1, * FROM unnest($2::text[], $3::text[], $4::text[], $5::text[], $6::text[])`,
-    [
-      topic,
-      rejected.map((r) => r.vesselKey ?? null),
-      rejected.map((r) => r.stream ?? null),
-      rejected.map((r) => r.reason),
-      rejected.map((r) => r.detail),
-      rejected.map((r) =>
-        (typeof r.payload === 'string' ? r.payload : JSON.stringify(r.payload) ?? String(r.payload)).slice(
-          0,
-          QUARANTINE_PAYLOAD_CHARS,
-        ),
-      ),
-    ],
-  );
+/** PostgreSQL text cannot hold U+0000: it would fail the whole write. */
+const noNul = (s: string) => s.replaceAll('\u0000', '\uFFFD');
+
+/**
+ * Rejections as text the quarantine table accepts: without U+0000 (a raw
+ * payload may hold it, and JSON.parse quotes the payload in its message), and
+ * a record too deeply nested for JSON.stringify shown as the message text.
+ */
+function storable(message: PreparedMessage, payload: Buffer): PreparedMessage {
+  const text = (value: unknown): string => {
+    if (typeof value === 'string') return value;
+    try {
+      return JSON.stringify(value) ?? String(value);
+    } catch {
+      return payload.subarray(0, QUARANTINE_PAYLOAD_CHARS).toString('utf8');
+    }
+  };
+  return {
+    ...message,
+    rejected: message.rejected.map((r) => ({
+      ...r,
+      topic: noNul(r.topic),
+      vesselKey: r.vesselKey === undefined ? undefined : noNul(r.vesselKey),
+      stream: r.stream === undefined ? undefined : noNul(r.stream),
+      detail: noNul(r.detail),
+      payload: noNul(text(r.payload)),
+    })),
+  };
 }

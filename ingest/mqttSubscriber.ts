@@ -1,5 +1,6 @@
-import mqtt, { type IClientOptions, type MqttClient } from 'mqtt';
+import mqtt, { type IClientOptions, type MqttClient, type Packet } from 'mqtt';
 import type { Logger } from '../lib/log/logger';
+import { AckQueue } from './ackQueue';
 
 export interface SubscriberOptions {
   url: string;
@@ -7,35 +8,50 @@ export interface SubscriberOptions {
   username?: string;
   password?: string;
   topics: string[];
-  /** Resolves once the message is committed; only then is it acknowledged. */
-  onMessage(topic: string, payload: Buffer): Promise<void>;
+  /**
+   * Take a message: `committed` resolves once it is stored (only then is it
+   * acknowledged); `ready` once the next message may be read (back-pressure).
+   */
+  onMessage(topic: string, payload: Buffer): { committed: Promise<void>; ready: Promise<void> };
   log: Logger;
 }
 
 /** How long the broker keeps our session (and queued QoS 1 messages) while we are away. */
 const SESSION_EXPIRY_S = 7 * 24 * 3600;
-const RETRY_MIN_MS = 500;
-const RETRY_MAX_MS = 30_000;
+type SendPacket = (packet: Packet, cb?: (error?: Error) => void, ...rest: unknown[]) => void;
 
 /**
  * One small class around mqtt.js. QoS 1 with a persistent session (fixed
  * client id, clean start off), so the broker keeps messages while the worker
- * is down. A message is acknowledged only after `onMessage` resolves; while it
- * fails (database down) it is retried with backoff and the connection reads
- * nothing more — back-pressure lands on the broker, which holds the rest.
- * Speaks MQTT 5 where the broker does, 3.1.1 otherwise.
+ * is down. Speaks MQTT 5 where the broker does, 3.1.1 otherwise.
+ *
+ * Acknowledge after commit, without reading one message at a time: mqtt.js
+ * sends a PUBACK as soon as `handleMessage` calls back and reads nothing more
+ * until then. Here `handleMessage` calls back once the message is buffered
+ * (so reading goes on and messages batch up), and the PUBACK it triggers is
+ * held in an AckQueue until the message is committed, then sent in arrival
+ * order. This wraps mqtt.js's internal `_sendPacket` (mqtt 5.16, pinned);
+ * test/ingestAck.test.ts proves no acknowledgement leaves before the commit.
+ * When the buffer is full, the call back waits: back-pressure on the broker.
  */
 export class TelemetrySubscriber {
   private client?: MqttClient;
   private stopping = false;
+  private paused = false;
   private disconnectedSince?: number;
   private disconnectTimer?: NodeJS.Timeout;
+  private readonly acks = new AckQueue();
   protocolVersion: 4 | 5 = 5;
 
   constructor(private readonly options: SubscriberOptions) {}
 
   get connected(): boolean {
     return this.client?.connected ?? false;
+  }
+
+  /** Messages received whose acknowledgement has not been sent yet. */
+  get unacknowledged(): number {
+    return this.acks.waiting;
   }
 
   async start(): Promise<void> {
@@ -65,28 +81,32 @@ export class TelemetrySubscriber {
       ...(protocolVersion === 5 ? { properties: { sessionExpiryInterval: SESSION_EXPIRY_S } } : {}),
     };
     const client = await mqtt.connectAsync(url, options, false);
+    const internals = client as unknown as { _sendPacket: SendPacket };
+    const send = internals._sendPacket.bind(client);
+    internals._sendPacket = (packet, cb, ...rest) => {
+      const id = (packet as { messageId?: number }).messageId;
+      if (packet.cmd === 'puback' && id !== undefined && this.acks.hold(id, () => send(packet, () => {}, ...rest))) {
+        cb?.(); // let mqtt.js read on; the PUBACK itself waits for the commit
+        return;
+      }
+      send(packet, cb, ...rest);
+    };
     client.handleMessage = (packet, done) => {
-      this.deliver(packet.topic, packet.payload as Buffer).then(() => done(), done);
+      // Paused (shutting down): neither take nor acknowledge; the broker keeps it.
+      if (this.paused) return;
+      const id = packet.qos > 0 ? packet.messageId : undefined;
+      if (id !== undefined) this.acks.arrived(id);
+      const { committed, ready } = this.options.onMessage(packet.topic, packet.payload as Buffer);
+      committed.then(
+        () => id !== undefined && this.acks.committed(id),
+        (error: Error) => log.warn(`a message from ${packet.topic} was not stored (${error.message}); the broker will deliver it again`),
+      );
+      ready.then(() => done(), (error: Error) => done(error));
     };
     client.on('close', () => this.markDisconnected());
     client.on('connect', () => this.markConnected());
     client.on('error', (error) => log.warn(`broker: ${error.message}`));
     return client;
-  }
-
-  private async deliver(topic: string, payload: Buffer): Promise<void> {
-    let wait = RETRY_MIN_MS;
-    for (;;) {
-      try {
-        await this.options.onMessage(topic, payload);
-        return;
-      } catch (error) {
-        if (this.stopping) throw error; // not acknowledged: the broker redelivers it
-        this.options.log.warn(`storing a message from ${topic} failed (${(error as Error).message}); retrying in ${wait} ms`);
-        await new Promise((r) => setTimeout(r, wait));
-        wait = Math.min(wait * 2, RETRY_MAX_MS);
-      }
-    }
   }
 
   private markDisconnected() {
@@ -104,6 +124,11 @@ export class TelemetrySubscriber {
     this.options.log.info('reconnected to the broker');
     this.disconnectedSince = undefined;
     clearInterval(this.disconnectTimer);
+  }
+
+  /** Take no more messages (those on the way stay with the broker, unacknowledged). */
+  pause(): void {
+    this.paused = true;
   }
 
   async stop(): Promise<void> {

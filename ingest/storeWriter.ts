@@ -1,6 +1,11 @@
+import { Readable } from 'node:stream';
+import { pipeline } from 'node:stream/promises';
 import type { PoolClient } from 'pg';
-import type { Stream, TelemetryRecord } from '../lib/telemetry/schemas';
+import { from as copyFrom } from 'pg-copy-streams';
+import type { Rejection } from '../lib/telemetry/parsePayload';
+import { STREAMS, type Stream, type TelemetryRecord } from '../lib/telemetry/schemas';
 import { tableSpecs } from '../lib/telemetry/tables';
+import { copyLine } from './copyText';
 
 export interface RecordBatch<S extends Stream = Stream> {
   stream: S;
@@ -8,51 +13,87 @@ export interface RecordBatch<S extends Stream = Stream> {
   records: TelemetryRecord[S][];
 }
 
-export interface WriteResult {
+/** A rejection on its way to the quarantine table. */
+export interface Quarantined extends Rejection {
+  topic: string;
+  vesselKey?: string;
+  stream?: string;
+}
+
+/** What one MQTT message contributes to a flush. */
+export interface PreparedMessage {
+  topic: string;
+  batch?: RecordBatch;
+  rejected: Quarantined[];
+}
+
+/** Table rows a batch becomes: one per record, or one per unit for per-unit streams. */
+export function rowsIn(batch: RecordBatch | undefined): number {
+  if (!batch) return 0;
+  let rows = 0;
+  for (const r of batch.records as { units?: unknown[]; buses?: unknown[]; systems?: unknown[] }[]) {
+    rows += (r.units ?? r.buses ?? r.systems)?.length ?? 1;
+  }
+  return rows;
+}
+
+export interface StreamResult {
   /** Rows stored (one per unit for per-unit streams). */
   inserted: number;
   /** Rows whose key was already stored: the first copy wins. */
   duplicates: number;
 }
 
-const insertSql = new Map<Stream, string>();
+export interface WriteResult extends StreamResult {
+  quarantined: number;
+  byStream: Partial<Record<Stream, StreamResult>>;
+}
+
+/** Quarantined payloads are cut to this many characters (docs/telemetry.md). */
+export const QUARANTINE_PAYLOAD_CHARS = 65_536;
+
+const stagingReady = new WeakSet<PoolClient>();
 
 /**
- * One statement per stream: bind each column as an array, insert what is new,
- * and mark the (vessel, fleet day) of every inserted row dirty for the daily
- * jobs — late data included. Duplicates are skipped by the primary key.
+ * One temporary staging table per time-series table, per connection, emptied
+ * at every commit. COPY fills it; one INSERT … ON CONFLICT DO NOTHING moves
+ * the rows whose keys are new.
  */
-function sqlFor(stream: Stream): string {
-  let sql = insertSql.get(stream);
-  if (sql) return sql;
-  const { table, columns } = tableSpecs[stream];
-  const names = columns.map(([name]) => name).join(', ');
-  const binds = columns.map(([, type], i) => `$${i + 1}::${type.startsWith('json:') ? 'text[]' : type}`).join(', ');
-  const values = columns
-    .map(([name, type]) =>
-      // JSON arrays "[1,2]" become PostgreSQL array literals "{1,2}".
-      type.startsWith('json:') ? `translate(${name}, '[]', '{}')::${type.slice(5)}` : name,
-    )
-    .join(', ');
-  const tz = `$${columns.length + 1}`;
-  sql = `
-    WITH incoming (${names}) AS (SELECT * FROM unnest(${binds})),
-    ins AS (
-      INSERT INTO ${table} (${names})
-      SELECT ${values} FROM incoming
-      ON CONFLICT DO NOTHING
-      RETURNING vessel_id, t
-    ),
-    marks AS (
-      INSERT INTO dirty_day (vessel_id, day)
-      SELECT DISTINCT vessel_id, (t AT TIME ZONE ${tz})::date FROM ins
-      ON CONFLICT (vessel_id, day) DO UPDATE SET marked_at = now()
-      RETURNING 1
-    )
-    SELECT (SELECT count(*) FROM ins)::int AS inserted`;
-  insertSql.set(stream, sql);
-  return sql;
+async function ensureStaging(client: PoolClient): Promise<void> {
+  if (stagingReady.has(client)) return;
+  for (const stream of STREAMS) {
+    const { table } = tableSpecs[stream];
+    await client.query(`CREATE TEMP TABLE IF NOT EXISTS stage_${table} (LIKE ${table}) ON COMMIT DELETE ROWS`);
+  }
+  stagingReady.add(client);
 }
+
+/** JSON arrays "[1,2]" in row values become PostgreSQL array literals "{1,2}". */
+function copyValues(row: unknown[], columns: readonly (readonly [string, string])[]): unknown[] {
+  return row.map((v, i) => (v !== null && columns[i]![1].startsWith('json:') ? `{${String(v).slice(1, -1)}}` : v));
+}
+
+async function copyRows(client: PoolClient, table: string, columns: readonly (readonly [string, string])[], rows: unknown[][]) {
+  const names = columns.map(([n]) => n).join(', ');
+  const lines = function* () {
+    for (const row of rows) yield copyLine(copyValues(row, columns));
+  };
+  await pipeline(Readable.from(lines()), client.query(copyFrom(`COPY stage_${table} (${names}) FROM STDIN`)));
+}
+
+const moveSql = (table: string) => `
+  WITH ins AS (
+    INSERT INTO ${table} SELECT * FROM stage_${table}
+    ON CONFLICT DO NOTHING
+    RETURNING vessel_id, t
+  ),
+  marks AS (
+    INSERT INTO dirty_day (vessel_id, day)
+    SELECT DISTINCT vessel_id, (t AT TIME ZONE $1)::date FROM ins
+    ON CONFLICT (vessel_id, day) DO UPDATE SET marked_at = now()
+    RETURNING 1
+  )
+  SELECT (SELECT count(*) FROM ins)::int AS inserted`;
 
 /**
  * Months (UTC) already known to have a partition, per table. Call
@@ -77,28 +118,56 @@ async function ensurePartitions(client: PoolClient, table: string, times: string
   }
 }
 
-/** Store the batches in the caller's transaction. */
-export async function writeBatches(client: PoolClient, batches: RecordBatch[], fleetTimeZone: string): Promise<WriteResult> {
-  const byStream = new Map<Stream, unknown[][]>();
-  for (const batch of batches) {
+async function writeQuarantine(client: PoolClient, rejected: Quarantined[]) {
+  if (rejected.length === 0) return;
+  const text = (r: Quarantined) =>
+    (typeof r.payload === 'string' ? r.payload : (JSON.stringify(r.payload) ?? String(r.payload))).slice(0, QUARANTINE_PAYLOAD_CHARS);
+  await client.query(
+    `INSERT INTO quarantine (topic, vessel_key, stream, reason, detail, payload)
+     SELECT * FROM unnest($1::text[], $2::text[], $3::text[], $4::text[], $5::text[], $6::text[])`,
+    [
+      rejected.map((r) => r.topic),
+      rejected.map((r) => r.vesselKey ?? null),
+      rejected.map((r) => r.stream ?? null),
+      rejected.map((r) => r.reason),
+      rejected.map((r) => r.detail),
+      rejected.map(text),
+    ],
+  );
+}
+
+/**
+ * Store the messages in the caller's transaction: their rows (duplicates
+ * skipped by the primary keys), their rejections, and a dirty mark for the
+ * (vessel, fleet day) of every row that was new — late data included.
+ */
+export async function writeMessages(client: PoolClient, messages: PreparedMessage[], fleetTimeZone: string): Promise<WriteResult> {
+  await ensureStaging(client);
+  const rowsByStream = new Map<Stream, unknown[][]>();
+  const rejected: Quarantined[] = [];
+  for (const message of messages) {
+    rejected.push(...message.rejected);
+    const batch = message.batch;
+    if (!batch) continue;
     const spec = tableSpecs[batch.stream] as (typeof tableSpecs)[Stream];
-    const rows = byStream.get(batch.stream) ?? [];
-    for (const record of batch.records) rows.push(...spec.rows(batch.vesselId, record as never));
-    byStream.set(batch.stream, rows);
+    const rows = rowsByStream.get(batch.stream) ?? [];
+    for (const record of batch.records) for (const row of spec.rows(batch.vesselId, record as never)) rows.push(row);
+    rowsByStream.set(batch.stream, rows);
   }
 
-  const result: WriteResult = { inserted: 0, duplicates: 0 };
-  for (const [stream, rows] of byStream) {
+  const result: WriteResult = { inserted: 0, duplicates: 0, quarantined: rejected.length, byStream: {} };
+  for (const [stream, rows] of rowsByStream) {
     if (rows.length === 0) continue;
     const { table, columns } = tableSpecs[stream];
     const tIndex = columns.findIndex(([name]) => name === 't');
     await ensurePartitions(client, table, rows.map((row) => row[tIndex] as string));
-    const params: unknown[] = columns.map((_, i) => rows.map((row) => row[i]));
-    params.push(fleetTimeZone);
-    const { rows: out } = await client.query<{ inserted: number }>(sqlFor(stream), params);
+    await copyRows(client, table, columns, rows);
+    const { rows: out } = await client.query<{ inserted: number }>(moveSql(table), [fleetTimeZone]);
     const inserted = out[0]!.inserted;
+    result.byStream[stream] = { inserted, duplicates: rows.length - inserted };
     result.inserted += inserted;
     result.duplicates += rows.length - inserted;
   }
+  await writeQuarantine(client, rejected);
   return result;
 }

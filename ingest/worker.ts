@@ -1,5 +1,6 @@
 import type { Pool } from 'pg';
 import type { Logger } from '../lib/log/logger';
+import { IngestPipeline } from './ingestPipeline';
 import { MessageHandler } from './messageHandler';
 import { TelemetrySubscriber } from './mqttSubscriber';
 import { VesselDirectory } from './vesselDirectory';
@@ -18,7 +19,8 @@ export interface IngestWorkerOptions {
 /** The ingest worker: subscriber → validation → store, acknowledged after commit. */
 export class IngestWorker {
   readonly handler: MessageHandler;
-  private readonly subscriber: TelemetrySubscriber;
+  readonly pipeline: IngestPipeline;
+  readonly subscriber: TelemetrySubscriber;
   private statsTimer?: NodeJS.Timeout;
 
   constructor(private readonly options: IngestWorkerOptions) {
@@ -27,15 +29,19 @@ export class IngestWorker {
       topicRoot: options.topicRoot,
       fleetTimeZone: options.fleetTimeZone,
     });
+    this.pipeline = new IngestPipeline({
+      pool: options.pool,
+      handler: this.handler,
+      fleetTimeZone: options.fleetTimeZone,
+      log: options.log,
+    });
     this.subscriber = new TelemetrySubscriber({
       url: options.mqttUrl,
       clientId: options.clientId,
       username: options.mqttUsername,
       password: options.mqttPassword,
       topics: [`${options.topicRoot}/+/+`],
-      onMessage: async (topic, payload) => {
-        await this.handler.handle(topic, payload);
-      },
+      onMessage: (topic, payload) => this.pipeline.submit(topic, payload),
       log: options.log,
     });
   }
@@ -51,8 +57,14 @@ export class IngestWorker {
     this.statsTimer.unref();
   }
 
+  /** Stop reading, store what was read, then disconnect (sending the last acknowledgements). */
   async stop(): Promise<void> {
     clearInterval(this.statsTimer);
+    this.subscriber.pause();
+    const drained = this.pipeline.drain();
+    const gaveUp = new Promise<void>((resolve) => setTimeout(resolve, 10_000).unref());
+    await Promise.race([drained, gaveUp]);
+    this.pipeline.abandon();
     await this.subscriber.stop();
   }
 }

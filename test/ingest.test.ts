@@ -1,6 +1,7 @@
 import mqtt, { type MqttClient } from 'mqtt';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { IngestWorker } from '../ingest/worker';
+import { offsetFromSetPoint } from '../lib/geo/wgs84';
 import { silentLogger } from '../lib/log/logger';
 import { DemoVessel } from '../seed/demoTelemetry';
 import { demoSite } from '../seed/sites';
@@ -49,14 +50,28 @@ describe('ingest worker, end to end through a real broker', () => {
     await publish('thrusters', { records: intervals.map((r) => r.thrusters) });
     await publish('power', { records: intervals.map((r) => r.power) });
     await publish('refs', { records: intervals.map((r) => r.refs) });
-    await publish('track', { v: 1, t: '2026-11-30T23:58:00Z', lat: 59.1, lon: 2.5, sp_lat: 59.1, sp_lon: 2.5 });
+    await publish('track', {
+      records: [
+        { v: 1, t: '2026-11-30T23:58:00Z', lat: 59.1000090, lon: 2.5000175, hdg: 12, sp_lat: 59.1, sp_lon: 2.5, sp_hdg: 10 },
+        { v: 1, t: '2026-11-30T23:58:01Z', lat: 59.1, lon: 2.5 },
+      ],
+    });
 
     await waitFor(() => worker.handler.counters.messages >= 6);
     const counts = await db.pool.query(`
       SELECT (SELECT count(*) FROM ts_station)::int AS station, (SELECT count(*) FROM ts_thruster)::int AS thrusters,
              (SELECT count(*) FROM ts_power)::int AS power, (SELECT count(*) FROM ts_ref)::int AS refs,
              (SELECT count(*) FROM ts_track)::int AS track`);
-    expect(counts.rows[0]).toEqual({ station: 4, thrusters: 8, power: 8, refs: 8, track: 1 });
+    expect(counts.rows[0]).toEqual({ station: 4, thrusters: 8, power: 8, refs: 8, track: 2 });
+
+    // Track positions are stored with their north/east offsets from the set point (WGS84).
+    const track = await db.pool.query(`SELECT north_m, east_m FROM ts_track ORDER BY t`);
+    const expected = offsetFromSetPoint(59.100009, 2.5000175, 59.1, 2.5);
+    expect(track.rows[0].north_m).toBeCloseTo(expected.north, 4);
+    expect(track.rows[0].east_m).toBeCloseTo(expected.east, 4);
+    expect(expected.north).toBeCloseTo(1.0, 1); // about 1 m north, 1 m east
+    expect(expected.east).toBeCloseTo(1.0, 1);
+    expect(track.rows[1]).toEqual({ north_m: null, east_m: null });
 
     const hist = await db.pool.query(`SELECT n, err_hist FROM ts_station ORDER BY t LIMIT 1`);
     expect(hist.rows[0].err_hist).toEqual(intervals[0]!.station.err!.hist);

@@ -16,7 +16,9 @@ export type RejectReason =
   | 'too_many_records'
   | 'invalid_record'
   | 'non_finite_number'
-  | 'future_timestamp';
+  | 'future_timestamp'
+  /** Valid by the contract, but the database refused it (see the detail). */
+  | 'store_rejected';
 
 export interface Rejection {
   reason: RejectReason;
@@ -28,6 +30,21 @@ export interface Rejection {
 export interface ParsedPayload<S extends Stream> {
   records: TelemetryRecord[S][];
   rejected: Rejection[];
+}
+
+/** The contract's payload is UTF-8: invalid bytes are an error, not U+FFFD. A BOM is kept (and so is invalid JSON). */
+const strictUtf8 = new TextDecoder('utf-8', { fatal: true, ignoreBOM: true });
+
+const isNonFinite = (v: unknown) => typeof v === 'number' && !Number.isFinite(v);
+
+/** The value at a zod issue path inside the raw record (undefined when the path does not exist). */
+function valueAt(item: unknown, path: readonly PropertyKey[]): unknown {
+  let v = item;
+  for (const key of path) {
+    if (v === null || typeof v !== 'object' || !Object.hasOwn(v, key)) return undefined;
+    v = (v as Record<PropertyKey, unknown>)[key];
+  }
+  return v;
 }
 
 /**
@@ -42,9 +59,15 @@ export function parsePayload<S extends Stream>(stream: S, payload: Buffer, now: 
   if (payload.length > MAX_PAYLOAD_BYTES) {
     return whole('payload_too_large', `payload is ${payload.length} bytes; the limit is ${MAX_PAYLOAD_BYTES}`);
   }
+  let text: string;
+  try {
+    text = strictUtf8.decode(payload);
+  } catch {
+    return whole('invalid_json', 'payload is not valid UTF-8');
+  }
   let body: unknown;
   try {
-    body = JSON.parse(payload.toString('utf8'));
+    body = JSON.parse(text);
   } catch (error) {
     return whole('invalid_json', (error as Error).message);
   }
@@ -70,11 +93,10 @@ export function parsePayload<S extends Stream>(stream: S, payload: Buffer, now: 
     const where = items.length > 1 || 'records' in body ? `records[${index}]` : 'record';
     const parsed = schema.safeParse(item);
     if (!parsed.success) {
-      const issue = parsed.error.issues[0]!;
+      // Any field of the contract holding ±Infinity (1e999 in JSON) makes it non_finite_number, named in the detail.
+      const nonFinite = parsed.error.issues.find((i) => isNonFinite(valueAt(item, i.path)));
+      const issue = nonFinite ?? parsed.error.issues[0]!;
       const path = issue.path.length ? `.${issue.path.join('.')}` : '';
-      const nonFinite = parsed.error.issues.some(
-        (i) => i.code === 'invalid_type' && /Infinity|NaN/.test(String((i as { received?: unknown }).received)),
-      );
       result.rejected.push({
         reason: nonFinite ? 'non_finite_number' : 'invalid_record',
         detail: `${where}${path}: ${issue.message}`,

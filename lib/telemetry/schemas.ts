@@ -19,16 +19,28 @@ const ISO_UTC = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}(\.\d{1,3})?Z$/;
 /** Tolerance for sums the gateway rounds (load bands vs run time), seconds. Common practice, no source. */
 export const SUM_TOLERANCE_S = 1;
 
-const num = z.number();
-const nonNegative = z.number().min(0);
-const count = z.number().int().min(0);
-const angle = z.number().min(0).max(360);
+// Stored as PostgreSQL real (float4) and integer (int4): values beyond those
+// types' ranges are rejected here rather than failing a whole database batch.
+const FLOAT4_MAX = 3.4e38;
+const INT4_MAX = 2_147_483_647;
+/** A float4 column: a non-zero value that would round to 0 there is refused by PostgreSQL ("out of range"). */
+const real = (min: number, max: number) =>
+  z.number().min(min).max(max).refine((v) => v === 0 || Math.fround(v) !== 0, 'is too close to 0 for a 32-bit float');
+const num = real(-FLOAT4_MAX, FLOAT4_MAX);
+const nonNegative = real(0, FLOAT4_MAX);
+const count = z.number().int().min(0).max(INT4_MAX);
+const angle = real(0, 360);
 const unitId = z.string().regex(UNIT_ID, 'must match ^[A-Za-z0-9_-]{1,16}$');
 
 const timestamp = z
   .string()
   .regex(ISO_UTC, 'must be ISO 8601 UTC ending in Z, e.g. 2026-03-04T05:06:00Z')
-  .refine((s) => !Number.isNaN(Date.parse(s)), 'is not a real date and time');
+  // Date.parse rolls 2026-02-30 over to March 2 and reads 24:00 as the next day,
+  // and PostgreSQL refuses year 0000: the parsed time must print back as sent.
+  .refine((s) => {
+    const ms = Date.parse(s);
+    return !Number.isNaN(ms) && !s.startsWith('0000') && new Date(ms).toISOString().slice(0, 19) === s.slice(0, 19);
+  }, 'is not a real date and time');
 
 const dt = z.number().int().min(1).max(3600);
 
@@ -75,9 +87,9 @@ export const stationRecord = z
       .optional(),
     hdg_err: z
       .object({
-        mean: z.number().min(-180).max(180).optional(),
-        rms: z.number().min(0).max(180).optional(),
-        max_abs: z.number().min(0).max(180).optional(),
+        mean: real(-180, 180).optional(),
+        rms: real(0, 180).optional(),
+        max_abs: real(0, 180).optional(),
       })
       .optional(),
     env: z
@@ -106,7 +118,7 @@ export const thrusterUnit = z
     run_s: nonNegative,
     starts: count,
     rpm: num.optional(),
-    pitch_pct: z.number().min(-100).max(100).optional(),
+    pitch_pct: real(-100, 100).optional(),
     load_pct_mean: nonNegative.optional(),
     load_pct_max: nonNegative.optional(),
     thrust_kn: num.optional(),
@@ -146,7 +158,7 @@ export const refSystem = z.object({
   id: unitId,
   kind: z.enum(['gnss', 'hydroacoustic', 'laser', 'radar', 'taut_wire', 'other']).optional(),
   online_s: nonNegative.optional(),
-  weight: z.number().min(0).max(1).optional(),
+  weight: real(0, 1).optional(),
   sd_m: nonNegative.optional(),
   rejected: count.optional(),
 });

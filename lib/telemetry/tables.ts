@@ -1,4 +1,5 @@
-import type { Stream, TelemetryRecord } from './schemas';
+import { offsetFromSetPoint } from '../geo/wgs84';
+import type { Stream, TelemetryRecord, TrackRecord } from './schemas';
 
 /**
  * How each stream's records become rows of its time-series table. Column
@@ -13,6 +14,12 @@ export interface TableSpec<S extends Stream> {
 }
 
 const nil = <T>(v: T | undefined): T | null => (v === undefined ? null : v);
+
+/** Offsets from the set point, when the record names one (docs/telemetry.md). */
+function trackOffset(r: TrackRecord): { north: number; east: number } | undefined {
+  if (r.sp_lat === undefined || r.sp_lon === undefined) return undefined;
+  return offsetFromSetPoint(r.lat, r.lon, r.sp_lat, r.sp_lon);
+}
 
 /** A nested array column travels as a JSON text so unnest keeps it whole. */
 const arrayAsJson = (v: readonly number[] | undefined) => (v === undefined ? null : JSON.stringify(v));
@@ -83,10 +90,14 @@ export const tableSpecs: { [S in Stream]: TableSpec<S> } = {
     table: 'ts_track',
     columns: [
       ['vessel_id', 'int4[]'], ['t', 'timestamptz[]'], ['lat', 'float8[]'], ['lon', 'float8[]'], ['hdg', 'float4[]'],
-      ['sp_lat', 'float8[]'], ['sp_lon', 'float8[]'], ['sp_hdg', 'float4[]'],
+      ['sp_lat', 'float8[]'], ['sp_lon', 'float8[]'], ['sp_hdg', 'float4[]'], ['north_m', 'float4[]'],
+      ['east_m', 'float4[]'],
     ],
-    rows: (vesselId, r) => [
-      [vesselId, r.t, r.lat, r.lon, nil(r.hdg), nil(r.sp_lat), nil(r.sp_lon), nil(r.sp_hdg)],
-    ],
+    rows: (vesselId, r) => {
+      const offset = trackOffset(r);
+      return [
+        [vesselId, r.t, r.lat, r.lon, nil(r.hdg), nil(r.sp_lat), nil(r.sp_lon), nil(r.sp_hdg), nil(offset?.north), nil(offset?.east)],
+      ];
+    },
   },
 };

@@ -1,0 +1,230 @@
+import type { Pool, PoolClient } from 'pg';
+import type { Logger } from '../lib/log/logger';
+import type { MessageHandler } from './messageHandler';
+import { forgetKnownPartitions, rowsIn, writeMessages, type PreparedMessage, type WriteResult } from './storeWriter';
+
+export interface PipelineOptions {
+  pool: Pool;
+  handler: MessageHandler;
+  fleetTimeZone: string;
+  log: Logger;
+  /** Flush as soon as this many rows wait. */
+  maxBatchRows?: number;
+  /** Flush at the latest this long after the first message of a batch arrived, ms. */
+  lingerMs?: number;
+  /** Stop reading from the broker while this many rows wait (back-pressure). */
+  highWaterRows?: number;
+}
+
+interface Waiting {
+  message: PreparedMessage;
+  rows: number;
+  resolve: () => void;
+  reject: (error: Error) => void;
+}
+
+export interface Submitted {
+  /** Resolves when the message is committed (stored and/or quarantined). */
+  committed: Promise<void>;
+  /** Resolves when there is room for more messages. */
+  ready: Promise<void>;
+}
+
+const RETRY_MIN_MS = 250;
+const RETRY_MAX_MS = 30_000;
+
+/** PostgreSQL errors worth retrying: connection loss, shutdown, overload, conflicts. */
+function isTransient(error: unknown): boolean {
+  const code = (error as { code?: string }).code ?? '';
+  return (
+    /^(08|53|57P|40001|40P01)/.test(code) ||
+    ['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', 'ENOTFOUND', 'EAI_AGAIN'].includes(code) ||
+    /Connection terminated|connection error|not queryable|timeout/i.test((error as Error).message ?? '')
+  );
+}
+
+const rowsOf = (m: PreparedMessage) => rowsIn(m.batch) + m.rejected.length;
+
+/**
+ * Batches messages into few transactions: messages wait in a buffer that is
+ * written (COPY into staging, then INSERT … ON CONFLICT DO NOTHING) when it
+ * holds `maxBatchRows` rows or `lingerMs` after its first message, one flush
+ * at a time. While the database is away a flush is retried with backoff and
+ * the buffer fills until `ready` holds the reader back. A flush that fails
+ * for a reason a retry cannot cure is split into single messages, and a
+ * message the store refuses on its own is quarantined as `store_rejected`.
+ */
+export class IngestPipeline {
+  private buffer: Waiting[] = [];
+  private bufferedRows = 0;
+  private flushing?: Promise<void>;
+  private lingerTimer?: NodeJS.Timeout;
+  private readChain: Promise<unknown> = Promise.resolve();
+  private roomWaiters: (() => void)[] = [];
+  private stopping = false;
+  private readonly maxBatchRows: number;
+  private readonly lingerMs: number;
+  private readonly highWaterRows: number;
+
+  constructor(private readonly options: PipelineOptions) {
+    this.maxBatchRows = options.maxBatchRows ?? 20_000;
+    this.lingerMs = options.lingerMs ?? 20;
+    this.highWaterRows = options.highWaterRows ?? 200_000;
+  }
+
+  get depth(): { messages: number; rows: number } {
+    return { messages: this.buffer.length, rows: this.bufferedRows };
+  }
+
+  submit(topic: string, payload: Buffer, now = new Date()): Submitted {
+    // Reads run one after another so a batch keeps arrival order ("first copy wins").
+    const prepared = (this.readChain = this.readChain.then(() => this.options.handler.read(topic, payload, now)));
+    const committed = (prepared as Promise<PreparedMessage>).then(
+      (message) =>
+        new Promise<void>((resolve, reject) => {
+          const rows = rowsOf(message);
+          this.buffer.push({ message, rows, resolve, reject });
+          this.bufferedRows += rows;
+          this.schedule();
+        }),
+    );
+    const ready = prepared.then(() => this.room());
+    return { committed, ready };
+  }
+
+  /** Write everything still buffered; resolves when all of it is committed. */
+  async drain(): Promise<void> {
+    await this.readChain.catch(() => {});
+    while (this.buffer.length > 0 || this.flushing) {
+      clearTimeout(this.lingerTimer);
+      this.lingerTimer = undefined;
+      if (!this.flushing) this.startFlush();
+      await this.flushing;
+    }
+  }
+
+  /** Stop retrying: what is still buffered is rejected (its messages stay unacknowledged). */
+  abandon(): void {
+    this.stopping = true;
+    for (const w of this.buffer.splice(0)) w.reject(new Error('ingest stopped before this message was stored'));
+    this.bufferedRows = 0;
+    this.wakeRoomWaiters();
+  }
+
+  private room(): Promise<void> {
+    if (this.bufferedRows < this.highWaterRows) return Promise.resolve();
+    return new Promise((resolve) => this.roomWaiters.push(resolve));
+  }
+
+  private wakeRoomWaiters() {
+    if (this.bufferedRows >= this.highWaterRows && !this.stopping) return;
+    for (const wake of this.roomWaiters.splice(0)) wake();
+  }
+
+  private schedule() {
+    if (this.flushing) return;
+    if (this.bufferedRows >= this.maxBatchRows) {
+      clearTimeout(this.lingerTimer);
+      this.lingerTimer = undefined;
+      this.startFlush();
+    } else if (!this.lingerTimer) {
+      this.lingerTimer = setTimeout(() => {
+        this.lingerTimer = undefined;
+        if (!this.flushing) this.startFlush();
+      }, this.lingerMs);
+    }
+  }
+
+  private startFlush() {
+    const batch: Waiting[] = [];
+    let rows = 0;
+    while (this.buffer.length > 0 && (batch.length === 0 || rows + this.buffer[0]!.rows <= this.maxBatchRows)) {
+      const w = this.buffer.shift()!;
+      batch.push(w);
+      rows += w.rows;
+    }
+    if (batch.length === 0) return;
+    this.flushing = this.flush(batch).finally(() => {
+      this.bufferedRows -= rows;
+      this.flushing = undefined;
+      this.wakeRoomWaiters();
+      if (this.buffer.length > 0) this.schedule();
+    });
+  }
+
+  private async flush(batch: Waiting[]): Promise<void> {
+    let wait = RETRY_MIN_MS;
+    for (;;) {
+      try {
+        const result = await this.write(batch.map((w) => w.message));
+        this.options.handler.count(batch.map((w) => w.message), result);
+        for (const w of batch) w.resolve();
+        return;
+      } catch (error) {
+        if (this.stopping) {
+          for (const w of batch) w.reject(error as Error);
+          return;
+        }
+        if (!isTransient(error)) return this.isolate(batch, error as Error);
+        this.options.log.warn(`storing ${batch.length} message(s) failed (${(error as Error).message}); retrying in ${wait} ms`);
+        await new Promise((r) => setTimeout(r, wait));
+        wait = Math.min(wait * 2, RETRY_MAX_MS);
+      }
+    }
+  }
+
+  /** Retry the messages one by one, so one the store refuses cannot hold up the rest. */
+  private async isolate(batch: Waiting[], cause: Error): Promise<void> {
+    this.options.log.warn(`a batch of ${batch.length} message(s) was refused (${cause.message}); storing them one by one`);
+    for (const w of batch) {
+      try {
+        const result = await this.write([w.message]);
+        this.options.handler.count([w.message], result);
+      } catch (error) {
+        if (isTransient(error)) {
+          // The database went away meanwhile: back to the normal retry path.
+          await this.flush([w]);
+          continue;
+        }
+        const refused = refusedMessage(w.message, error as Error);
+        const result = await this.write([refused]);
+        this.options.handler.count([refused], result);
+      }
+      w.resolve();
+    }
+  }
+
+  private async write(messages: PreparedMessage[]): Promise<WriteResult> {
+    const client: PoolClient = await this.options.pool.connect();
+    try {
+      await client.query('BEGIN');
+      const result = await writeMessages(client, messages, this.options.fleetTimeZone);
+      await client.query('COMMIT');
+      return result;
+    } catch (error) {
+      await client.query('ROLLBACK').catch(() => {});
+      forgetKnownPartitions();
+      throw error;
+    } finally {
+      client.release();
+    }
+  }
+}
+
+/** A message the store refused on its own: all of it goes to quarantine. */
+function refusedMessage(message: PreparedMessage, error: Error): PreparedMessage {
+  const topic = message.topic;
+  return {
+    topic,
+    rejected: [
+      ...message.rejected,
+      ...(message.batch?.records ?? []).map((record, i) => ({
+        reason: 'store_rejected' as const,
+        detail: `records[${i}]: the store refused the message (${error.message})`,
+        payload: record,
+        topic,
+        stream: message.batch!.stream,
+      })),
+    ],
+  };
+}
