@@ -78,8 +78,10 @@ export class IngestPipeline {
 
   submit(topic: string, payload: Buffer, now = new Date()): Submitted {
     // Reads run one after another so a batch keeps arrival order ("first copy wins").
-    const prepared = (this.readChain = this.readChain.then(() => this.options.handler.read(topic, payload, now)));
-    const committed = (prepared as Promise<PreparedMessage>).then(
+    const prepared = this.readChain.then(() => this.readWithRetry(topic, payload, now));
+    // A failed read (database away during a vessel look-up) must not block the reads after it.
+    this.readChain = prepared.catch(() => {});
+    const committed = prepared.then(
       (message) =>
         new Promise<void>((resolve, reject) => {
           const rows = rowsOf(message);
@@ -90,6 +92,21 @@ export class IngestPipeline {
     );
     const ready = prepared.then(() => this.room());
     return { committed, ready };
+  }
+
+  /** A vessel look-up can meet a database that is away: retry it like a flush. */
+  private async readWithRetry(topic: string, payload: Buffer, now: Date): Promise<PreparedMessage> {
+    let wait = RETRY_MIN_MS;
+    for (;;) {
+      try {
+        return await this.options.handler.read(topic, payload, now);
+      } catch (error) {
+        if (this.stopping || !isTransient(error)) throw error;
+        this.options.log.warn(`reading a message failed (${(error as Error).message}); retrying in ${wait} ms`);
+        await new Promise((r) => setTimeout(r, wait));
+        wait = Math.min(wait * 2, RETRY_MAX_MS);
+      }
+    }
   }
 
   /** Write everything still buffered; resolves when all of it is committed. */

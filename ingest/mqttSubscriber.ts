@@ -18,6 +18,7 @@ export interface SubscriberOptions {
 
 /** How long the broker keeps our session (and queued QoS 1 messages) while we are away. */
 const SESSION_EXPIRY_S = 7 * 24 * 3600;
+const RECONNECT_MS = 2_000;
 type SendPacket = (packet: Packet, cb?: (error?: Error) => void, ...rest: unknown[]) => void;
 
 /**
@@ -75,12 +76,15 @@ export class TelemetrySubscriber {
       password,
       clean: false,
       protocolVersion,
-      reconnectPeriod: 2_000,
+      reconnectPeriod: 0, // the first attempt reports its error; see below
       connectTimeout: 10_000,
       resubscribe: true,
       ...(protocolVersion === 5 ? { properties: { sessionExpiryInterval: SESSION_EXPIRY_S } } : {}),
     };
-    const client = await mqtt.connectAsync(url, options, false);
+    // Handlers go on before the connection opens: a broker resuming our
+    // session redelivers unacknowledged messages right after CONNACK, and
+    // mqtt.js's default handler would acknowledge them unstored.
+    const client = mqtt.connect(url, { ...options, manualConnect: true });
     const internals = client as unknown as { _sendPacket: SendPacket };
     const send = internals._sendPacket.bind(client);
     internals._sendPacket = (packet, cb, ...rest) => {
@@ -103,6 +107,21 @@ export class TelemetrySubscriber {
       );
       ready.then(() => done(), (error: Error) => done(error));
     };
+    await new Promise<void>((resolve, reject) => {
+      const fail = (error: Error) => {
+        client.removeListener('connect', ok);
+        client.end(true);
+        reject(error);
+      };
+      const ok = () => {
+        client.removeListener('error', fail);
+        client.options.reconnectPeriod = RECONNECT_MS; // from now on, reconnect by itself
+        resolve();
+      };
+      client.once('connect', ok);
+      client.once('error', fail);
+      client.connect();
+    });
     client.on('close', () => this.markDisconnected());
     client.on('connect', () => this.markConnected());
     client.on('error', (error) => log.warn(`broker: ${error.message}`));
