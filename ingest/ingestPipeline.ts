@@ -14,6 +14,8 @@ export interface PipelineOptions {
   lingerMs?: number;
   /** Stop reading from the broker while this many rows wait (back-pressure). */
   highWaterRows?: number;
+  /** Flushes that may run at once (each on its own connection). */
+  concurrency?: number;
 }
 
 interface Waiting {
@@ -48,8 +50,9 @@ const rowsOf = (m: PreparedMessage) => rowsIn(m.batch) + m.rejected.length;
 /**
  * Batches messages into few transactions: messages wait in a buffer that is
  * written (COPY into staging, then INSERT … ON CONFLICT DO NOTHING) when it
- * holds `maxBatchRows` rows or `lingerMs` after its first message, one flush
- * at a time. While the database is away a flush is retried with backoff and
+ * holds `maxBatchRows` rows or `lingerMs` after its first message, with up
+ * to `concurrency` flushes at once (with duplicates in flight at the same
+ * time, the copy committed first is the one kept). While the database is away a flush is retried with backoff and
  * the buffer fills until `ready` holds the reader back. A flush that fails
  * for a reason a retry cannot cure is split into single messages, and a
  * message the store refuses on its own is quarantined as `store_rejected`.
@@ -57,7 +60,9 @@ const rowsOf = (m: PreparedMessage) => rowsIn(m.batch) + m.rejected.length;
 export class IngestPipeline {
   private buffer: Waiting[] = [];
   private bufferedRows = 0;
-  private flushing?: Promise<void>;
+  private rowsInFlight = 0;
+  /** Flushes in progress; up to `concurrency` run at once, on their own connections. */
+  private readonly flushing = new Set<Promise<void>>();
   private lingerTimer?: NodeJS.Timeout;
   private readChain: Promise<unknown> = Promise.resolve();
   private roomWaiters: (() => void)[] = [];
@@ -65,15 +70,17 @@ export class IngestPipeline {
   private readonly maxBatchRows: number;
   private readonly lingerMs: number;
   private readonly highWaterRows: number;
+  private readonly concurrency: number;
 
   constructor(private readonly options: PipelineOptions) {
     this.maxBatchRows = options.maxBatchRows ?? 20_000;
     this.lingerMs = options.lingerMs ?? 20;
-    this.highWaterRows = options.highWaterRows ?? 200_000;
+    this.highWaterRows = options.highWaterRows ?? 60_000;
+    this.concurrency = options.concurrency ?? 2;
   }
 
   get depth(): { messages: number; rows: number } {
-    return { messages: this.buffer.length, rows: this.bufferedRows };
+    return { messages: this.buffer.length, rows: this.waitingRows() };
   }
 
   submit(topic: string, payload: Buffer, now = new Date()): Submitted {
@@ -112,11 +119,11 @@ export class IngestPipeline {
   /** Write everything still buffered; resolves when all of it is committed. */
   async drain(): Promise<void> {
     await this.readChain.catch(() => {});
-    while (this.buffer.length > 0 || this.flushing) {
+    while (this.buffer.length > 0 || this.flushing.size > 0) {
       clearTimeout(this.lingerTimer);
       this.lingerTimer = undefined;
-      if (!this.flushing) this.startFlush();
-      await this.flushing;
+      while (this.buffer.length > 0 && this.flushing.size < this.concurrency) this.startFlush();
+      await Promise.race(this.flushing);
     }
   }
 
@@ -124,7 +131,7 @@ export class IngestPipeline {
   abandon(): void {
     this.stopping = true;
     for (const w of this.buffer.splice(0)) w.reject(new Error('ingest stopped before this message was stored'));
-    this.bufferedRows = 0;
+    this.bufferedRows = this.rowsInFlight;
     this.wakeRoomWaiters();
   }
 
@@ -139,17 +146,22 @@ export class IngestPipeline {
   }
 
   private schedule() {
-    if (this.flushing) return;
-    if (this.bufferedRows >= this.maxBatchRows) {
+    if (this.flushing.size >= this.concurrency || this.buffer.length === 0) return;
+    if (this.waitingRows() >= this.maxBatchRows) {
       clearTimeout(this.lingerTimer);
       this.lingerTimer = undefined;
       this.startFlush();
     } else if (!this.lingerTimer) {
       this.lingerTimer = setTimeout(() => {
         this.lingerTimer = undefined;
-        if (!this.flushing) this.startFlush();
+        if (this.flushing.size < this.concurrency) this.startFlush();
       }, this.lingerMs);
     }
+  }
+
+  /** Rows buffered and not yet taken by a flush. */
+  private waitingRows(): number {
+    return this.bufferedRows - this.rowsInFlight;
   }
 
   private startFlush() {
@@ -161,12 +173,21 @@ export class IngestPipeline {
       rows += w.rows;
     }
     if (batch.length === 0) return;
-    this.flushing = this.flush(batch).finally(() => {
-      this.bufferedRows -= rows;
-      this.flushing = undefined;
-      this.wakeRoomWaiters();
-      if (this.buffer.length > 0) this.schedule();
-    });
+    this.rowsInFlight += rows;
+    const flush: Promise<void> = this.flush(batch)
+      .catch((error: Error) => {
+        // flush() settles every message itself; this is the last line of defence.
+        this.options.log.error(`a flush failed unexpectedly: ${error.message}`);
+        for (const w of batch) w.reject(error);
+      })
+      .finally(() => {
+        this.rowsInFlight -= rows;
+        this.bufferedRows -= rows;
+        this.flushing.delete(flush);
+        this.wakeRoomWaiters();
+        this.schedule();
+      });
+    this.flushing.add(flush);
   }
 
   private async flush(batch: Waiting[]): Promise<void> {

@@ -1,0 +1,248 @@
+/**
+ * npm run bench:ingest — how close the MQTT ingest path comes to the store's
+ * own speed. In one run, on the same generated fleet traffic (vessels with 8
+ * thrusters, 1-minute statistics, 14 table rows per interval):
+ *   limit  the rows written straight to the store by the worker's writer
+ *          (COPY into staging + INSERT … ON CONFLICT), no MQTT, no JSON;
+ *   e2e    contract messages (`records` batches and single records, QoS 1)
+ *          through a broker into a `holdfast ingest` process, until every
+ *          row is committed.
+ * Prints rows/s for each, the worker's memory, and last, per broker:
+ *   ingest_ratio=R e2e_rows_per_s=N limit_rows_per_s=M
+ * Target (issue 3): R ≥ 0.6 with Mosquitto; worker RSS < 250 MB.
+ */
+import { spawn, type ChildProcess } from 'node:child_process';
+import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import net from 'node:net';
+import os from 'node:os';
+import path from 'node:path';
+import { Aedes } from 'aedes';
+import mqtt from 'mqtt';
+import { createPrisma } from '../lib/db/prisma';
+import { importFleet } from '../lib/register/importFleet';
+import { anyFreePort } from '../lib/net/freePort';
+import { topicFor } from '../lib/telemetry/topic';
+import { writeMessages, type PreparedMessage } from '../ingest/storeWriter';
+import { Random } from '../seed/random';
+import { benchDatabase, memoryOf, reachable, type BenchDatabase } from './benchEnv';
+import { benchFleet, benchInterval, ROWS_PER_INTERVAL, type IntervalRecords } from './ingestFleet';
+
+const VESSELS = Number(process.env.BENCH_VESSELS ?? 20);
+const HOURS = Number(process.env.BENCH_HOURS ?? 12);
+const SINGLE_SHARE = 0.2; // share of hours sent as single-record messages
+const STREAMS = ['station', 'thrusters', 'power', 'refs'] as const;
+const START = Date.UTC(2026, 10, 20);
+const EXPECTED_ROWS = VESSELS * HOURS * 60 * ROWS_PER_INTERVAL;
+
+interface Hour {
+  vessel: string;
+  single: boolean;
+  records: Record<(typeof STREAMS)[number], unknown[]>;
+}
+
+function traffic(tag: string): Hour[] {
+  const rng = new Random(42);
+  const hours: Hour[] = [];
+  for (let h = 0; h < HOURS; h++) {
+    for (let v = 0; v < VESSELS; v++) {
+      const records = { station: [], thrusters: [], power: [], refs: [] } as Hour['records'];
+      for (let m = 0; m < 60; m++) {
+        const r: IntervalRecords = benchInterval(START + (h * 60 + m) * 60_000, rng);
+        for (const s of STREAMS) records[s].push(r[s]);
+      }
+      hours.push({ vessel: `bench-${tag}-${v}`, single: rng.next() < SINGLE_SHARE, records });
+    }
+  }
+  return hours;
+}
+
+async function register(db: BenchDatabase, tag: string): Promise<Map<string, number>> {
+  const prisma = createPrisma(db.url);
+  await importFleet(prisma, benchFleet(VESSELS, tag));
+  await prisma.$disconnect();
+  const { rows } = await db.pool.query<{ key: string; id: number }>('SELECT key, id FROM vessel');
+  return new Map(rows.map((r) => [r.key, r.id]));
+}
+
+async function limit(): Promise<number> {
+  const db = await benchDatabase();
+  try {
+    const ids = await register(db, 'limit');
+    const hours = traffic('limit');
+    const client = await db.pool.connect();
+    const started = performance.now();
+    let batch: PreparedMessage[] = [];
+    let rows = 0;
+    const flush = async () => {
+      await client.query('BEGIN');
+      await writeMessages(client, batch, 'UTC');
+      await client.query('COMMIT');
+      batch = [];
+      rows = 0;
+    };
+    for (const hour of hours) {
+      for (const s of STREAMS) {
+        batch.push({ topic: '', rejected: [], batch: { stream: s, vesselId: ids.get(hour.vessel)!, records: hour.records[s] as never[] } });
+      }
+      rows += 60 * ROWS_PER_INTERVAL;
+      if (rows >= 20_000) await flush();
+    }
+    if (batch.length) await flush();
+    const seconds = (performance.now() - started) / 1000;
+    client.release();
+    const stored = await countRows(db);
+    if (stored !== EXPECTED_ROWS) throw new Error(`limit phase stored ${stored} rows, expected ${EXPECTED_ROWS}`);
+    console.log(`limit: ${EXPECTED_ROWS} rows in ${seconds.toFixed(2)} s (${db.label})`);
+    return EXPECTED_ROWS / seconds;
+  } finally {
+    await db.close();
+  }
+}
+
+async function countRows(db: BenchDatabase): Promise<number> {
+  const { rows } = await db.pool.query<{ n: number }>(
+    `SELECT ((SELECT count(*) FROM ts_station) + (SELECT count(*) FROM ts_thruster)
+           + (SELECT count(*) FROM ts_power) + (SELECT count(*) FROM ts_ref))::int AS n`,
+  );
+  return rows[0]!.n;
+}
+
+function startWorker(db: BenchDatabase, mqttUrl: string, tag: string): Promise<ChildProcess> {
+  // BENCH_WORKER_NODE_ARGS: extra node flags for the worker, e.g. "--cpu-prof --cpu-prof-dir=/tmp/prof".
+  const nodeArgs = (process.env.BENCH_WORKER_NODE_ARGS ?? '').split(' ').filter(Boolean);
+  const child = spawn(process.execPath, [...nodeArgs, 'bin/holdfast.mjs', 'ingest'], {
+    env: { ...process.env, DATABASE_URL: db.url, MQTT_URL: mqttUrl, MQTT_TOPIC_ROOT: `bench-${tag}/v1`, MQTT_CLIENT_ID: `holdfast-bench-${tag}`, LOG_LEVEL: 'warn' },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  });
+  return new Promise((resolve, reject) => {
+    let output = '';
+    const onData = (d: Buffer) => {
+      output += d.toString();
+      if (/subscribed to/.test(output)) resolve(child);
+    };
+    child.stdout!.on('data', onData);
+    child.stderr!.on('data', onData);
+    child.once('exit', (code) => reject(new Error(`worker exited (${code}): ${output}`)));
+    // LOG_LEVEL=warn hides the "subscribed" line; poll the broker session instead.
+    setTimeout(() => resolve(child), 4_000);
+  });
+}
+
+async function endToEnd(mqttUrl: string, brokerLabel: string): Promise<{ rowsPerS: number; peakMb: number }> {
+  const tag = `${brokerLabel.replace(/\W/g, '').toLowerCase()}${process.pid}`;
+  const db = await benchDatabase();
+  let worker: ChildProcess | undefined;
+  try {
+    await register(db, tag);
+    const hours = traffic(tag);
+    worker = await startWorker(db, mqttUrl, tag);
+    const publisher = await mqtt.connectAsync(mqttUrl, { clientId: `bench-pub-${tag}` });
+    let peakMb = 0;
+    const sampler = setInterval(() => void memoryOf(worker!.pid!).then((m) => (peakMb = Math.max(peakMb, m.rssMb))).catch(() => {}), 200);
+
+    // Messages are serialised before the clock starts: the publisher shares the two cores.
+    const messages: [topic: string, body: string][] = [];
+    for (const hour of hours) {
+      for (const s of STREAMS) {
+        const topic = topicFor(`bench-${tag}/v1`, hour.vessel, s);
+        if (hour.single) for (const r of hour.records[s]) messages.push([topic, JSON.stringify(r)]);
+        else messages.push([topic, JSON.stringify({ records: hour.records[s] })]);
+      }
+    }
+    const started = performance.now();
+    let outstanding = 0;
+    for (const [topic, body] of messages) {
+      while (outstanding >= 500) await new Promise((r) => setTimeout(r, 1));
+      outstanding++;
+      publisher.publish(topic, body, { qos: 1 }, () => outstanding--);
+    }
+    for (;;) {
+      const stored = await countRows(db);
+      if (stored >= EXPECTED_ROWS) break;
+      if (performance.now() - started > 600_000) throw new Error(`e2e stalled at ${stored} of ${EXPECTED_ROWS} rows`);
+      await new Promise((r) => setTimeout(r, 100));
+    }
+    const seconds = (performance.now() - started) / 1000;
+    clearInterval(sampler);
+    const final = await memoryOf(worker.pid!);
+    peakMb = Math.max(peakMb, final.peakMb);
+    await publisher.endAsync();
+    console.log(`e2e (${brokerLabel}): ${EXPECTED_ROWS} rows in ${seconds.toFixed(2)} s; worker peak RSS ${peakMb.toFixed(0)} MB`);
+    return { rowsPerS: EXPECTED_ROWS / seconds, peakMb };
+  } finally {
+    if (worker && process.env.BENCH_WORKER_NODE_ARGS) {
+      worker.kill('SIGINT');
+      await new Promise((r) => worker!.once('exit', r));
+    } else worker?.kill('SIGKILL');
+    await db.close();
+  }
+}
+
+async function embeddedBroker(): Promise<{ url: string; close(): Promise<void> }> {
+  const broker = await Aedes.createBroker();
+  const server = net.createServer(broker.handle);
+  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
+  return {
+    url: `mqtt://127.0.0.1:${(server.address() as net.AddressInfo).port}`,
+    close: () => new Promise((resolve) => broker.close(() => server.close(() => resolve()))),
+  };
+}
+
+/**
+ * A Mosquitto for the run, configured as the README advises for ingest (a deep per-client queue, so a flood or a worker restart never
+ * makes the broker drop QoS 1 messages), on a free port.
+ */
+async function ownMosquitto(): Promise<{ url: string; close(): Promise<void> } | undefined> {
+  const binary = ['/usr/sbin/mosquitto', '/usr/bin/mosquitto'].find((p) => existsSync(p));
+  if (!binary) return undefined;
+  const dir = mkdtempSync(path.join(os.tmpdir(), 'holdfast-bench-mqtt-'));
+  const port = await anyFreePort();
+  const conf = path.join(dir, 'mosquitto.conf');
+  writeFileSync(conf, [`listener ${port} 127.0.0.1`, 'allow_anonymous true', 'persistence false', 'max_queued_messages 1000000', 'max_inflight_messages 1000', ''].join('\n'));
+  const child = spawn(binary, ['-c', conf], { stdio: 'ignore' });
+  for (let i = 0; i < 50 && !(await reachable(port)); i++) await new Promise((r) => setTimeout(r, 100));
+  return {
+    url: `mqtt://127.0.0.1:${port}`,
+    close: async () => {
+      child.kill('SIGTERM');
+      rmSync(dir, { recursive: true, force: true });
+    },
+  };
+}
+
+async function main() {
+  console.log(`bench:ingest — ${VESSELS} vessels × ${HOURS} h of 1-minute statistics = ${EXPECTED_ROWS} rows (${Math.round(SINGLE_SHARE * 100)} % of hours as single-record messages)`);
+  const limitRate = await limit();
+  const results: { label: string; rowsPerS: number; peakMb: number }[] = [];
+  const aedes = await embeddedBroker();
+  try {
+    results.push({ label: 'embedded aedes', ...(await endToEnd(aedes.url, 'embedded aedes')) });
+  } finally {
+    await aedes.close();
+  }
+  const given = process.env.BENCH_MQTT_URL;
+  const own = given ? undefined : await ownMosquitto();
+  try {
+    const url = given ?? own?.url;
+    if (url) results.push({ label: 'mosquitto', ...(await endToEnd(url, 'mosquitto')) });
+    else console.log('mosquitto: not installed here; set BENCH_MQTT_URL to measure another broker');
+  } finally {
+    await own?.close();
+  }
+  for (const r of results) {
+    console.log(
+      `broker=${r.label.replace(' ', '-')} worker_peak_rss_mb=${r.peakMb.toFixed(0)} ` +
+        `ingest_ratio=${(r.rowsPerS / limitRate).toFixed(2)} e2e_rows_per_s=${Math.round(r.rowsPerS)} limit_rows_per_s=${Math.round(limitRate)}`,
+    );
+  }
+  const last = results.at(-1)!;
+  console.log(`ingest_ratio=${(last.rowsPerS / limitRate).toFixed(2)} e2e_rows_per_s=${Math.round(last.rowsPerS)} limit_rows_per_s=${Math.round(limitRate)}`);
+}
+
+main().then(
+  () => process.exit(0),
+  (error) => {
+    console.error(error);
+    process.exit(1);
+  },
+);
