@@ -16,6 +16,31 @@ export interface PipelineOptions {
   highWaterRows?: number;
   /** Flushes that may run at once (each on its own connection). */
   concurrency?: number;
+  /** Told about every committed flush (metrics). */
+  onFlush?: (flush: FlushReport) => void;
+}
+
+export interface FlushReport {
+  messages: number;
+  rows: number;
+  /** Time from BEGIN to COMMIT, seconds. */
+  commitSeconds: number;
+  result: WriteResult;
+  /** Per message with records: commit time minus its newest record's `t`, seconds. */
+  lagSeconds: number[];
+}
+
+/** Commit time minus the newest record time of each message, seconds. */
+function lags(messages: PreparedMessage[], committedAt: number): number[] {
+  const out: number[] = [];
+  for (const m of messages) {
+    const records = m.batch?.records as { t: string }[] | undefined;
+    if (!records?.length) continue;
+    let newest = records[0]!.t;
+    for (const r of records) if (r.t > newest) newest = r.t;
+    out.push((committedAt - Date.parse(newest)) / 1000);
+  }
+  return out;
 }
 
 interface Waiting {
@@ -194,9 +219,19 @@ export class IngestPipeline {
     let wait = RETRY_MIN_MS;
     for (;;) {
       try {
-        const result = await this.write(batch.map((w) => w.message));
-        this.options.handler.count(batch.map((w) => w.message), result);
+        const messages = batch.map((w) => w.message);
+        const started = performance.now();
+        const result = await this.write(messages);
+        const commitSeconds = (performance.now() - started) / 1000;
+        this.options.handler.count(messages, result);
         for (const w of batch) w.resolve();
+        this.options.onFlush?.({
+          messages: messages.length,
+          rows: batch.reduce((n, w) => n + w.rows, 0),
+          commitSeconds,
+          result,
+          lagSeconds: this.options.onFlush ? lags(messages, Date.now()) : [],
+        });
         return;
       } catch (error) {
         if (this.stopping) {
