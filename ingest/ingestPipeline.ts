@@ -225,12 +225,13 @@ export class IngestPipeline {
         const commitSeconds = (performance.now() - started) / 1000;
         this.options.handler.count(messages, result);
         for (const w of batch) w.resolve();
-        this.options.onFlush?.({
+        const report = this.options.onFlush;
+        report?.({
           messages: messages.length,
           rows: batch.reduce((n, w) => n + w.rows, 0),
           commitSeconds,
           result,
-          lagSeconds: this.options.onFlush ? lags(messages, Date.now()) : [],
+          lagSeconds: lags(messages, Date.now()),
         });
         return;
       } catch (error) {
