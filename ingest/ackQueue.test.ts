@@ -42,3 +42,18 @@ describe('AckQueue', () => {
     expect(sent).toEqual(['first', 'second']);
   });
 });
+
+describe('AckQueue with many messages', () => {
+  it('releases 5,000 acknowledgements in arrival order whatever the commit order', () => {
+    const sent: number[] = [];
+    const q = new AckQueue();
+    const ids = Array.from({ length: 5000 }, (_, i) => (i % 65535) + 1);
+    for (const id of ids) q.arrived(id);
+    for (const id of ids) q.hold(id, () => sent.push(id));
+    // Commit in a scrambled but complete order (a fixed permutation).
+    const order = ids.map((_, i) => (i * 7919) % ids.length);
+    for (const i of order) q.committed(ids[i]!);
+    expect(sent).toEqual(ids);
+    expect(q.waiting).toBe(0);
+  });
+});

@@ -5,17 +5,30 @@
  * commit a later message in the same batch as an earlier one: a committed
  * message waits here until every message before it is committed too.
  */
+interface Entry {
+  id: number;
+  committed: boolean;
+  send?: () => void;
+}
+
 export class AckQueue {
-  private readonly entries: { id: number; committed: boolean; send?: () => void }[] = [];
+  private readonly order: Entry[] = [];
+  private head = 0;
+  /** Entries by message id, oldest first (an id is reused only after its PUBACK). */
+  private readonly byId = new Map<number, Entry[]>();
 
   /** A QoS 1 message arrived. */
   arrived(id: number): void {
-    this.entries.push({ id, committed: false });
+    const entry: Entry = { id, committed: false };
+    this.order.push(entry);
+    const same = this.byId.get(id);
+    if (same) same.push(entry);
+    else this.byId.set(id, [entry]);
   }
 
   /** The message is stored (or quarantined): its acknowledgement may go. */
   committed(id: number): void {
-    const entry = this.entries.find((e) => e.id === id && !e.committed);
+    const entry = this.byId.get(id)?.find((e) => !e.committed);
     if (entry) entry.committed = true;
     this.release();
   }
@@ -26,7 +39,7 @@ export class AckQueue {
    * its turn comes.
    */
   hold(id: number, send: () => void): boolean {
-    const entry = this.entries.find((e) => e.id === id && !e.send);
+    const entry = this.byId.get(id)?.find((e) => !e.send);
     if (!entry) return false;
     entry.send = send;
     this.release();
@@ -34,12 +47,23 @@ export class AckQueue {
   }
 
   get waiting(): number {
-    return this.entries.length;
+    return this.order.length - this.head;
   }
 
   private release(): void {
-    while (this.entries.length > 0 && this.entries[0]!.committed && this.entries[0]!.send) {
-      this.entries.shift()!.send!();
+    while (this.head < this.order.length) {
+      const first = this.order[this.head]!;
+      if (!first.committed || !first.send) break;
+      this.head++;
+      const same = this.byId.get(first.id)!;
+      same.shift();
+      if (same.length === 0) this.byId.delete(first.id);
+      first.send();
+    }
+    // Drop released entries now and then, so the array does not grow for ever.
+    if (this.head > 1024 && this.head * 2 > this.order.length) {
+      this.order.splice(0, this.head);
+      this.head = 0;
     }
   }
 }
