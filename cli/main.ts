@@ -2,9 +2,6 @@ import { parseArgs } from 'node:util';
 import { ConfigError, loadConfig } from '../lib/config';
 import { createLogger } from '../lib/log/logger';
 import { FleetFileError } from '../lib/register/fleetFile';
-import { fleetImportCommand } from './commands/fleetImport';
-import { ingestCommand, jobsCommand, migrateCommand } from './commands/services';
-import { startCommand } from './commands/start';
 
 const HELP = `holdfast — fleet station-keeping analytics (advisory, after the fact)
 
@@ -31,18 +28,20 @@ async function main(argv: string[]): Promise<void> {
     return;
   }
   const config = loadConfig();
-  const log = createLogger(config.LOG_LEVEL);
+  const log = createLogger(config.LOG_LEVEL, 'holdfast', undefined, config.LOG_FORMAT);
+  // Each command loads only its own modules: a worker process should not
+  // carry the web supervisor, the Prisma client or the demo publisher.
   switch (command) {
     case 'start':
-      return startCommand(config, log, { web: !values['no-web'] });
+      return (await import('./commands/start')).startCommand(config, log, { web: !values['no-web'] });
     case 'migrate':
-      return migrateCommand(config, log);
+      return (await import('./commands/services')).migrateCommand(config, log);
     case 'ingest':
-      return ingestCommand(config, log);
+      return (await import('./commands/services')).ingestCommand(config, log);
     case 'jobs':
-      return jobsCommand(config, log);
+      return (await import('./commands/services')).jobsCommand(config, log);
     case 'fleet':
-      if (rest[0] === 'import' && rest[1]) return fleetImportCommand(config, log, rest[1]);
+      if (rest[0] === 'import' && rest[1]) return (await import('./commands/fleetImport')).fleetImportCommand(config, log, rest[1]);
       throw new UsageError('usage: holdfast fleet import FILE');
     default:
       throw new UsageError(`unknown command "${command}"; try: holdfast help`);

@@ -3,11 +3,11 @@ import { mkdir } from 'node:fs/promises';
 import path from 'node:path';
 import pg from 'pg';
 import type { Config } from '../lib/config';
-import { startEmbeddedDatabase } from '../lib/db/embedded';
 import { pgExecutor } from '../lib/db/executor';
 import { migrate } from '../lib/db/migrate';
 import { createPool, type Pool } from '../lib/db/pool';
 import type { Logger } from '../lib/log/logger';
+import { startStatusServer, type StatusServer } from '../ingest/statusServer';
 import { IngestWorker } from '../ingest/worker';
 
 /**
@@ -64,6 +64,7 @@ export async function openStore(config: Config, log: Logger): Promise<Store> {
   let stopEmbedded: (() => Promise<void>) | undefined;
   if (!url) {
     await mkdir(config.HOLDFAST_DATA_DIR, { recursive: true });
+    const { startEmbeddedDatabase } = await import('../lib/db/embedded');
     const embedded = await startEmbeddedDatabase({
       dir: path.join(config.HOLDFAST_DATA_DIR, 'pg'),
       port: config.HOLDFAST_EMBEDDED_PG_PORT,
@@ -125,7 +126,21 @@ export function ingestWorkerFor(config: Config, pool: Pool, mqttUrl: string, log
     mqttPassword: config.MQTT_PASSWORD,
     clientId: config.MQTT_CLIENT_ID,
     topicRoot: config.MQTT_TOPIC_ROOT,
+    sharedGroup: config.MQTT_SHARED_GROUP,
     fleetTimeZone: config.FLEET_TIME_ZONE,
     log: log.child('ingest'),
   });
+}
+
+/** The worker's /metrics and /healthz on `port` (all interfaces). */
+export async function statusServerFor(worker: IngestWorker, port: number, log: Logger): Promise<StatusServer> {
+  try {
+    return await startStatusServer({ port, metrics: worker.metrics, health: worker.health, log });
+  } catch (error) {
+    const e = error as NodeJS.ErrnoException;
+    if (e.code === 'EADDRINUSE' || e.code === 'EACCES') {
+      throw new Error(`Setting HOLDFAST_METRICS_PORT: cannot listen on port ${port} (${e.code}); choose another, or 0 to turn the status server off`);
+    }
+    throw error;
+  }
 }

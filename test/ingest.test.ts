@@ -114,4 +114,32 @@ describe('ingest worker, end to end through a real broker', () => {
     const stored = await db.pool.query(`SELECT count(*)::int AS n FROM ts_station WHERE t = '2026-11-28T10:00:00Z'`);
     expect(stored.rows[0].n).toBe(1);
   });
+
+  it('stores a 10,000-record backlog batch exactly, and marks out-of-order and days-late records on the right days', async () => {
+    await db.pool.query('DELETE FROM dirty_day');
+    // A store-and-forward backlog: 10,000 one-minute records, newest first, spanning 7 days up to 12 days ago.
+    const end = Date.UTC(2026, 10, 19, 6, 0);
+    const backlog = Array.from({ length: 10_000 }, (_, i) => ({
+      v: 1, t: new Date(end - i * 60_000).toISOString().replace('.000', ''), dt: 60, mode: 'auto_position', dp_s: 60, n: 0,
+    }));
+    const before = worker.handler.counters.messages;
+    const payload = JSON.stringify({ records: backlog });
+    expect(Buffer.byteLength(payload)).toBeLessThan(1024 * 1024); // within the contract's 1 MiB
+    await publish('station', payload);
+    // Then a live record, and one late record of an earlier day, out of order.
+    await publish('station', { v: 1, t: '2026-11-26T12:00:00Z', dt: 60, mode: 'standby', dp_s: 0, n: 0 });
+    await publish('station', { v: 1, t: '2026-11-02T03:00:00Z', dt: 60, mode: 'standby', dp_s: 0, n: 0 });
+    await waitFor(() => worker.handler.counters.messages >= before + 3, 30_000, 'the backlog');
+
+    const stored = await db.pool.query(
+      `SELECT count(*)::int AS n FROM ts_station WHERE t > $1::timestamptz - interval '7 days' AND t <= $1`,
+      [new Date(end).toISOString()],
+    );
+    expect(stored.rows[0].n).toBe(10_000);
+    const expectedDays = new Set(backlog.map((r) => r.t.slice(0, 10)));
+    expectedDays.add('2026-11-26');
+    expectedDays.add('2026-11-02');
+    const marked = await db.pool.query(`SELECT day FROM dirty_day ORDER BY day`);
+    expect(marked.rows.map((r) => r.day)).toEqual([...expectedDays].sort());
+  });
 });
