@@ -35,6 +35,8 @@ describe('ingest worker killed mid-stream', () => {
         MQTT_TOPIC_ROOT: root,
         MQTT_CLIENT_ID: `holdfast-kill-${suffix}`,
         LOG_LEVEL: 'info',
+        // No status server: the default port may be held by another test's process.
+        HOLDFAST_METRICS_PORT: '0',
       },
     });
     worker = child;

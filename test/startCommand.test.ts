@@ -51,6 +51,17 @@ describe('holdfast start (without the web app)', () => {
     await waitFor(async () => (await count()) >= first + 24, 20_000, 'live records');
   });
 
+  it('serves ingest metrics and health on the status server it logged', async () => {
+    const url = /ingest metrics: (http:\/\/localhost:\d+)\/metrics/.exec(output)?.[1];
+    expect(url, 'the status server URL in the log').toBeDefined();
+    const health = await fetch(`${url}/healthz`);
+    expect(health.status).toBe(200);
+    expect(await health.json()).toMatchObject({ status: 'ok', broker: 'connected', database: 'ok' });
+    const metrics = await (await fetch(`${url}/metrics`)).text();
+    const stored = /^holdfast_ingest_rows_stored_total\{stream="station"\} (\d+)$/m.exec(metrics)?.[1];
+    expect(Number(stored)).toBeGreaterThan(0);
+  });
+
   it('computes daily rows for the days that received records', async () => {
     await waitFor(
       async () => (await db.pool.query('SELECT count(*)::int AS n FROM daily_vessel')).rows[0].n >= 12,

@@ -1,7 +1,8 @@
+import type { StatusServer } from '../../ingest/statusServer';
 import type { Config } from '../../lib/config';
 import { startJobRunner } from '../../lib/jobs/runner';
 import type { Logger } from '../../lib/log/logger';
-import { ingestWorkerFor, openStore } from '../runtime';
+import { ingestWorkerFor, openStore, statusServerFor } from '../runtime';
 
 /** Block until SIGINT or SIGTERM, then run `stop`. */
 function untilSignal(stop: () => Promise<void>): Promise<void> {
@@ -24,9 +25,21 @@ export async function ingestCommand(config: Config, log: Logger): Promise<void> 
   const mqttUrl = requireSetting(config, 'MQTT_URL');
   const store = await openStore(config, log.child('store'));
   const worker = ingestWorkerFor(config, store.pool, mqttUrl, log);
-  await worker.start();
+  const port = config.HOLDFAST_METRICS_PORT;
+  let status: StatusServer | undefined;
+  try {
+    // Before connecting: a port that cannot be had stops start-up before any message is taken.
+    if (port !== 0) status = await statusServerFor(worker, port, log);
+    await worker.start();
+  } catch (error) {
+    await status?.stop();
+    await store.close();
+    throw error;
+  }
+  if (status) log.info(`status server on port ${status.port} (all interfaces): /metrics, /healthz`);
   await untilSignal(async () => {
     await worker.stop();
+    await status?.stop();
     await store.close();
   });
 }

@@ -9,7 +9,8 @@ import { readFleetFile } from '../../lib/register/fleetFile';
 import { importFleet } from '../../lib/register/importFleet';
 import { createPrisma } from '../../lib/db/prisma';
 import { DemoPublisher } from '../../seed/publisher';
-import { ingestWorkerFor, openStore, removeRuntimeFile, writeRuntimeFile } from '../runtime';
+import { preferredOrFreePort } from '../../lib/net/freePort';
+import { ingestWorkerFor, openStore, removeRuntimeFile, statusServerFor, writeRuntimeFile } from '../runtime';
 import { buildWeb, isBuildFresh, startWeb, stopChild, waitForHttp } from '../webServer';
 
 export const DEMO_FLEET_FILE = 'seed/fleet.json';
@@ -70,6 +71,17 @@ export async function startCommand(config: Config, log: Logger, options: StartOp
   const worker = ingestWorkerFor(config, store.pool, mqttUrl, log);
   await worker.start();
   stops.push({ name: 'ingest', stop: () => worker.stop() });
+
+  if (config.HOLDFAST_METRICS_PORT !== 0) {
+    // A taken port moves the status server elsewhere; failing that, the demo runs without it.
+    try {
+      const status = await statusServerFor(worker, await preferredOrFreePort(config.HOLDFAST_METRICS_PORT), log);
+      stops.push({ name: 'status server', stop: () => status.stop() });
+      log.info(`ingest metrics: http://localhost:${status.port}/metrics  health: http://localhost:${status.port}/healthz`);
+    } catch (error) {
+      log.warn(`no status server: ${(error as Error).message}`);
+    }
+  }
 
   const jobs: JobRunner = await startJobRunner({
     connectionString: store.url,

@@ -9,13 +9,16 @@ import { z } from 'zod';
 // loadConfig drops empty strings before parsing, so unset and "" are alike.
 const optionalText = z.string().trim().optional();
 
-const port = (fallback: number) =>
-  z.coerce
-    .number({ error: 'must be a whole number from 1 to 65535' })
-    .int('must be a whole number from 1 to 65535')
-    .min(1, 'must be a whole number from 1 to 65535')
-    .max(65535, 'must be a whole number from 1 to 65535')
+/** A port number; with `off`, 0 is allowed and means "turned off". */
+const port = (fallback: number, { off = false } = {}) => {
+  const message = off ? 'must be a whole number from 0 (off) to 65535' : 'must be a whole number from 1 to 65535';
+  return z.coerce
+    .number({ error: message })
+    .int(message)
+    .min(off ? 0 : 1, message)
+    .max(65535, message)
     .default(fallback);
+};
 
 const postgresUrl = optionalText.refine(
   (v) => v === undefined || /^postgres(ql)?:\/\/.+/.test(v),
@@ -56,6 +59,11 @@ export const envSchema = z.object({
       'must be a topic prefix without wildcards or leading/trailing "/" (e.g. fleet/v1)',
     ),
   MQTT_CLIENT_ID: z.string().trim().min(1).max(64).default('holdfast-ingest'),
+  // The share name of `$share/{group}/{filter}` (MQTT 5, section 4.8.2): no "/", "+" or "#".
+  MQTT_SHARED_GROUP: optionalText.refine(
+    (v) => v === undefined || /^[^/+#]{1,64}$/.test(v),
+    'must be a group name of 1 to 64 characters without "/", "+" or "#"',
+  ),
   PORT: port(3000),
   HOLDFAST_DATA_DIR: z.string().trim().min(1, 'must not be empty').default('./.holdfast'),
   FLEET_TIME_ZONE: z
@@ -68,6 +76,7 @@ export const envSchema = z.object({
     .default('auto'),
   HOLDFAST_EMBEDDED_PG_PORT: port(5488),
   HOLDFAST_EMBEDDED_MQTT_PORT: port(1884),
+  HOLDFAST_METRICS_PORT: port(9464, { off: true }),
   HOLDFAST_DEMO: onOff('on'),
   HOLDFAST_DEMO_INTERVAL_S: z.coerce
     .number({ error: 'must be a whole number of seconds from 1 to 3600' })
@@ -84,6 +93,7 @@ export const envSchema = z.object({
   LOG_LEVEL: z
     .enum(['debug', 'info', 'warn', 'error'], { error: 'must be debug, info, warn or error' })
     .default('info'),
+  LOG_FORMAT: z.enum(['auto', 'json', 'text'], { error: 'must be auto, json or text' }).default('auto'),
 });
 
 export type Env = z.infer<typeof envSchema>;

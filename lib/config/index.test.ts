@@ -14,7 +14,17 @@ describe('loadConfig', () => {
       HOLDFAST_STORE: 'auto',
       HOLDFAST_EMBEDDED_MQTT_PORT: 1884,
       HOLDFAST_DEMO: true,
+      HOLDFAST_METRICS_PORT: 9464,
+      LOG_FORMAT: 'auto',
     });
+    expect(c.MQTT_SHARED_GROUP).toBeUndefined();
+  });
+
+  it('reads the observability and shared-subscription settings', () => {
+    const c = loadConfig({ HOLDFAST_METRICS_PORT: '0', LOG_FORMAT: 'json', MQTT_SHARED_GROUP: 'ingest-north' });
+    expect(c.HOLDFAST_METRICS_PORT).toBe(0); // 0 turns the status server off
+    expect(c.LOG_FORMAT).toBe('json');
+    expect(c.MQTT_SHARED_GROUP).toBe('ingest-north');
   });
 
   it('treats an empty string as unset', () => {
@@ -43,6 +53,11 @@ describe('loadConfig', () => {
     [{ MQTT_URL: 'http://x' }, 'Setting MQTT_URL: must be an mqtt://'],
     [{ MQTT_TOPIC_ROOT: 'fleet/#' }, 'Setting MQTT_TOPIC_ROOT: must be a topic prefix without wildcards'],
     [{ HOLDFAST_STORE: 'mongo' }, 'Setting HOLDFAST_STORE: must be auto, timescale or partitions'],
+    [{ HOLDFAST_METRICS_PORT: '-1' }, 'Setting HOLDFAST_METRICS_PORT: must be a whole number from 0 (off) to 65535 (got "-1")'],
+    [{ LOG_FORMAT: 'xml' }, 'Setting LOG_FORMAT: must be auto, json or text (got "xml")'],
+    [{ MQTT_SHARED_GROUP: 'a/b' }, 'Setting MQTT_SHARED_GROUP: must be a group name of 1 to 64 characters without "/", "+" or "#"'],
+    [{ MQTT_SHARED_GROUP: 'all+' }, 'Setting MQTT_SHARED_GROUP: must be a group name'],
+    [{ MQTT_SHARED_GROUP: '#' }, 'Setting MQTT_SHARED_GROUP: must be a group name'],
   ])('rejects %o with one line naming the setting', (env, message) => {
     let error: unknown;
     try {
