@@ -1,7 +1,7 @@
-import type { Pool, PoolClient } from 'pg';
+import type { Pool } from 'pg';
 import type { Logger } from '../lib/log/logger';
 import type { MessageHandler } from './messageHandler';
-import { forgetKnownPartitions, rowsIn, writeMessages, type PreparedMessage, type WriteResult } from './storeWriter';
+import { rowsIn, writeInTransaction, type PreparedMessage, type WriteResult } from './storeWriter';
 
 export interface PipelineOptions {
   pool: Pool;
@@ -268,20 +268,8 @@ export class IngestPipeline {
     }
   }
 
-  private async write(messages: PreparedMessage[]): Promise<WriteResult> {
-    const client: PoolClient = await this.options.pool.connect();
-    try {
-      await client.query('BEGIN');
-      const result = await writeMessages(client, messages, this.options.fleetTimeZone);
-      await client.query('COMMIT');
-      return result;
-    } catch (error) {
-      await client.query('ROLLBACK').catch(() => {});
-      forgetKnownPartitions();
-      throw error;
-    } finally {
-      client.release();
-    }
+  private write(messages: PreparedMessage[]): Promise<WriteResult> {
+    return writeInTransaction(this.options.pool, messages, this.options.fleetTimeZone);
   }
 }
 

@@ -4,8 +4,7 @@ import type { Stream } from '../lib/telemetry/schemas';
 import { parseTopic } from '../lib/telemetry/topic';
 import {
   QUARANTINE_PAYLOAD_CHARS,
-  forgetKnownPartitions,
-  writeMessages,
+  writeInTransaction,
   type PreparedMessage,
   type WriteResult,
 } from './storeWriter';
@@ -40,20 +39,9 @@ export class MessageHandler {
 
   async handle(topic: string, payload: Buffer, now = new Date()): Promise<HandleResult> {
     const message = await this.read(topic, payload, now);
-    const client = await this.pool.connect();
-    try {
-      await client.query('BEGIN');
-      const result = await writeMessages(client, [message], this.options.fleetTimeZone);
-      await client.query('COMMIT');
-      this.count([message], result);
-      return { inserted: result.inserted, duplicates: result.duplicates, quarantined: result.quarantined };
-    } catch (error) {
-      await client.query('ROLLBACK').catch(() => {});
-      forgetKnownPartitions();
-      throw error;
-    } finally {
-      client.release();
-    }
+    const result = await writeInTransaction(this.pool, [message], this.options.fleetTimeZone);
+    this.count([message], result);
+    return { inserted: result.inserted, duplicates: result.duplicates, quarantined: result.quarantined };
   }
 
   /** Topic and payload → the records to store and the rejections to quarantine (no writes). */

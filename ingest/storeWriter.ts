@@ -1,6 +1,6 @@
 import { Readable } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
-import type { PoolClient } from 'pg';
+import type { Pool, PoolClient } from 'pg';
 import { from as copyFrom } from 'pg-copy-streams';
 import type { Rejection } from '../lib/telemetry/parsePayload';
 import { STREAMS, type Stream, type TelemetryRecord } from '../lib/telemetry/schemas';
@@ -177,4 +177,21 @@ export async function writeMessages(client: PoolClient, messages: PreparedMessag
   }
   await writeQuarantine(client, rejected);
   return result;
+}
+
+/** `writeMessages` in a transaction of its own, on a connection from `pool`. */
+export async function writeInTransaction(pool: Pool, messages: PreparedMessage[], fleetTimeZone: string): Promise<WriteResult> {
+  const client = await pool.connect();
+  try {
+    await client.query('BEGIN');
+    const result = await writeMessages(client, messages, fleetTimeZone);
+    await client.query('COMMIT');
+    return result;
+  } catch (error) {
+    await client.query('ROLLBACK').catch(() => {});
+    forgetKnownPartitions();
+    throw error;
+  } finally {
+    client.release();
+  }
 }

@@ -1,10 +1,10 @@
 import mqtt, { type MqttClient } from 'mqtt';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { IngestWorker } from '../ingest/worker';
+import type { IngestWorker } from '../ingest/worker';
 import { offsetFromSetPoint } from '../lib/geo/wgs84';
-import { silentLogger } from '../lib/log/logger';
 import { DemoVessel } from '../seed/demoTelemetry';
 import { demoSite } from '../seed/sites';
+import { testWorker } from './helpers/testWorker';
 import { createMigratedDatabase, type TestDatabase } from './helpers/db';
 import { registerFleet, smallFleet, uniqueSuffix } from './helpers/fleet';
 import { waitFor } from './helpers/waitFor';
@@ -21,14 +21,7 @@ describe('ingest worker, end to end through a real broker', () => {
   beforeAll(async () => {
     db = await createMigratedDatabase();
     await registerFleet(db.url, fleet);
-    worker = new IngestWorker({
-      pool: db.pool,
-      mqttUrl: inject('mqttUrl'),
-      clientId: `holdfast-test-${suffix}`,
-      topicRoot: root,
-      fleetTimeZone: 'UTC',
-      log: silentLogger,
-    });
+    worker = testWorker(db.pool, `holdfast-test-${suffix}`, root);
     await worker.start();
     publisher = await mqtt.connectAsync(inject('mqttUrl'), { clientId: `pub-${suffix}`, protocolVersion: 4 });
   });

@@ -1,9 +1,9 @@
 import mqtt, { type MqttClient } from 'mqtt';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { IngestWorker } from '../ingest/worker';
-import { silentLogger } from '../lib/log/logger';
+import type { IngestWorker } from '../ingest/worker';
 import { readFleetFile } from '../lib/register/fleetFile';
 import { buildBadInputCorpus, type CorpusCase } from './corpus/badInput';
+import { testWorker } from './helpers/testWorker';
 import { createMigratedDatabase, type TestDatabase } from './helpers/db';
 import { registerFleet, smallFleet, uniqueSuffix } from './helpers/fleet';
 import { waitFor } from './helpers/waitFor';
@@ -51,14 +51,7 @@ describe('ingest worker against the bad-input corpus', () => {
     const { rows } = await db.pool.query<{ id: number; key: string }>('SELECT id, key FROM vessel');
     for (const r of rows) vesselIds.set(r.key, r.id);
 
-    worker = new IngestWorker({
-      pool: db.pool,
-      mqttUrl: inject('mqttUrl'),
-      clientId: `holdfast-corpus-${suffix}`,
-      topicRoot: root,
-      fleetTimeZone: 'UTC',
-      log: silentLogger,
-    });
+    worker = testWorker(db.pool, `holdfast-corpus-${suffix}`, root);
     await worker.start();
     publisher = await mqtt.connectAsync(inject('mqttUrl'), { clientId: `pub-corpus-${suffix}`, protocolVersion: 4 });
 

@@ -4,6 +4,7 @@ import { startStatusServer, type StatusServer } from '../ingest/statusServer';
 import { IngestWorker } from '../ingest/worker';
 import { createPool, type Pool } from '../lib/db/pool';
 import { silentLogger } from '../lib/log/logger';
+import { testWorker } from './helpers/testWorker';
 import { createMigratedDatabase, type TestDatabase } from './helpers/db';
 import { registerFleet, smallFleet, uniqueSuffix } from './helpers/fleet';
 import { waitFor } from './helpers/waitFor';
@@ -14,9 +15,6 @@ function sample(text: string, series: string): number | undefined {
   return line === undefined ? undefined : Number(line.slice(series.length + 1));
 }
 
-/** A worker reading `topicRoot` into `pool`, quiet, on the test broker. */
-const testWorker = (pool: Pool, clientId: string, topicRoot: string, extra: { sharedGroup?: string; processMetrics?: boolean } = {}) =>
-  new IngestWorker({ pool, mqttUrl: inject('mqttUrl'), clientId, topicRoot, fleetTimeZone: 'UTC', log: silentLogger, ...extra });
 
 const statusOf = (worker: IngestWorker) =>
   startStatusServer({ port: 0, metrics: worker.metrics, health: worker.health, log: silentLogger });
