@@ -87,3 +87,25 @@ export async function memoryOf(pid: number): Promise<{ rssMb: number; peakMb: nu
   const kb = (key: string) => Number(new RegExp(`${key}:\\s+(\\d+)`).exec(status)?.[1] ?? 0);
   return { rssMb: kb('VmRSS') / 1024, peakMb: kb('VmHWM') / 1024 };
 }
+
+/** CPU seconds (user + system) used so far by a process, or by every process whose command line matches. */
+export async function cpuSeconds(match: number | RegExp): Promise<number> {
+  const { readFile, readdir } = await import('node:fs/promises');
+  const ticks = 100; // USER_HZ on Linux
+  const pids = typeof match === 'number' ? [String(match)] : (await readdir('/proc')).filter((p) => /^\d+$/.test(p));
+  let total = 0;
+  for (const pid of pids) {
+    try {
+      if (typeof match !== 'number') {
+        const cmd = await readFile(`/proc/${pid}/cmdline`, 'utf8');
+        if (!match.test(cmd.replaceAll('\0', ' '))) continue;
+      }
+      const stat = await readFile(`/proc/${pid}/stat`, 'utf8');
+      const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
+      total += (Number(fields[11]) + Number(fields[12])) / ticks;
+    } catch {
+      // the process ended meanwhile
+    }
+  }
+  return total;
+}

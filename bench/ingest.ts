@@ -24,12 +24,12 @@ import { anyFreePort } from '../lib/net/freePort';
 import { topicFor } from '../lib/telemetry/topic';
 import { writeMessages, type PreparedMessage } from '../ingest/storeWriter';
 import { Random } from '../seed/random';
-import { benchDatabase, memoryOf, reachable, type BenchDatabase } from './benchEnv';
+import { benchDatabase, cpuSeconds, memoryOf, reachable, type BenchDatabase } from './benchEnv';
 import { benchFleet, benchInterval, ROWS_PER_INTERVAL, type IntervalRecords } from './ingestFleet';
 
 const VESSELS = Number(process.env.BENCH_VESSELS ?? 20);
 const HOURS = Number(process.env.BENCH_HOURS ?? 12);
-const SINGLE_SHARE = 0.2; // share of hours sent as single-record messages
+const SINGLE_SHARE = Number(process.env.BENCH_SINGLE_SHARE ?? 0.2); // share of hours sent as single-record messages
 const STREAMS = ['station', 'thrusters', 'power', 'refs'] as const;
 const START = Date.UTC(2026, 10, 20);
 const EXPECTED_ROWS = VESSELS * HOURS * 60 * ROWS_PER_INTERVAL;
@@ -149,6 +149,7 @@ async function endToEnd(mqttUrl: string, brokerLabel: string): Promise<{ rowsPer
         else messages.push([topic, JSON.stringify({ records: hour.records[s] })]);
       }
     }
+    const cpuBefore = { worker: await cpuSeconds(worker.pid!), postgres: await cpuSeconds(/^postgres/), bench: process.cpuUsage() };
     const started = performance.now();
     let outstanding = 0;
     for (const [topic, body] of messages) {
@@ -163,6 +164,12 @@ async function endToEnd(mqttUrl: string, brokerLabel: string): Promise<{ rowsPer
       await new Promise((r) => setTimeout(r, 100));
     }
     const seconds = (performance.now() - started) / 1000;
+    const bench = process.cpuUsage(cpuBefore.bench);
+    console.log(
+      `  cpu seconds during e2e: worker ${(await cpuSeconds(worker.pid!)) - cpuBefore.worker}, ` +
+        `postgres ${((await cpuSeconds(/^postgres/)) - cpuBefore.postgres).toFixed(2)}, ` +
+        `publisher+embedded broker ${((bench.user + bench.system) / 1e6).toFixed(2)}`,
+    );
     clearInterval(sampler);
     const final = await memoryOf(worker.pid!);
     peakMb = Math.max(peakMb, final.peakMb);

@@ -129,6 +129,8 @@ export function ingestWorkerFor(config: Config, pool: Pool, mqttUrl: string, log
     sharedGroup: config.MQTT_SHARED_GROUP,
     fleetTimeZone: config.FLEET_TIME_ZONE,
     log: log.child('ingest'),
+    batchRows: config.INGEST_BATCH_ROWS,
+    bufferRows: Math.max(config.INGEST_BUFFER_ROWS, config.INGEST_BATCH_ROWS),
   });
 }
 

@@ -24,6 +24,10 @@ export interface IngestWorkerOptions {
   log: Logger;
   /** Add Node's process metrics (memory, CPU, event loop) to `metrics` (default true). */
   processMetrics?: boolean;
+  /** Rows per write transaction (default 20,000). */
+  batchRows?: number;
+  /** Rows held in memory before the worker stops reading (default 60,000). */
+  bufferRows?: number;
 }
 
 const STATS_EVERY_MS = 60_000;
@@ -66,6 +70,8 @@ export class IngestWorker {
       fleetTimeZone: options.fleetTimeZone,
       log: options.log,
       onFlush: (flush) => this.metrics.observeFlush(flush),
+      maxBatchRows: options.batchRows,
+      highWaterRows: options.bufferRows,
     });
     this.subscriber = new TelemetrySubscriber({
       url: options.mqttUrl,

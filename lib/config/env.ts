@@ -77,6 +77,18 @@ export const envSchema = z.object({
   HOLDFAST_EMBEDDED_PG_PORT: port(5488),
   HOLDFAST_EMBEDDED_MQTT_PORT: port(1884),
   HOLDFAST_METRICS_PORT: port(9464, { off: true }),
+  INGEST_BATCH_ROWS: z.coerce
+    .number({ error: 'must be a whole number of rows from 100 to 1000000' })
+    .int('must be a whole number of rows from 100 to 1000000')
+    .min(100, 'must be a whole number of rows from 100 to 1000000')
+    .max(1_000_000, 'must be a whole number of rows from 100 to 1000000')
+    .default(20_000),
+  INGEST_BUFFER_ROWS: z.coerce
+    .number({ error: 'must be a whole number of rows from 100 to 10000000' })
+    .int('must be a whole number of rows from 100 to 10000000')
+    .min(100, 'must be a whole number of rows from 100 to 10000000')
+    .max(10_000_000, 'must be a whole number of rows from 100 to 10000000')
+    .default(60_000),
   HOLDFAST_DEMO: onOff('on'),
   HOLDFAST_DEMO_INTERVAL_S: z.coerce
     .number({ error: 'must be a whole number of seconds from 1 to 3600' })
