@@ -31,6 +31,7 @@ const VESSELS = Number(process.env.BENCH_VESSELS ?? 20);
 const HOURS = Number(process.env.BENCH_HOURS ?? 12);
 const SINGLE_SHARE = Number(process.env.BENCH_SINGLE_SHARE ?? 0.2); // share of hours sent as single-record messages
 const STREAMS = ['station', 'thrusters', 'power', 'refs'] as const;
+const MODES = ['backlog', 'live'] as const;
 const START = Date.UTC(2026, 10, 20);
 const EXPECTED_ROWS = VESSELS * HOURS * 60 * ROWS_PER_INTERVAL;
 
@@ -111,7 +112,16 @@ function startWorker(db: BenchDatabase, mqttUrl: string, tag: string): Promise<C
   // BENCH_WORKER_NODE_ARGS: extra node flags for the worker, e.g. "--cpu-prof --cpu-prof-dir=/tmp/prof".
   const nodeArgs = (process.env.BENCH_WORKER_NODE_ARGS ?? '').split(' ').filter(Boolean);
   const child = spawn(process.execPath, [...nodeArgs, 'bin/holdfast.mjs', 'ingest'], {
-    env: { ...process.env, DATABASE_URL: db.url, MQTT_URL: mqttUrl, MQTT_TOPIC_ROOT: `bench-${tag}/v1`, MQTT_CLIENT_ID: `holdfast-bench-${tag}`, LOG_LEVEL: 'warn' },
+    env: {
+      ...process.env,
+      DATABASE_URL: db.url,
+      MQTT_URL: mqttUrl,
+      MQTT_TOPIC_ROOT: `bench-${tag}/v1`,
+      MQTT_CLIENT_ID: `holdfast-bench-${tag}`,
+      HOLDFAST_METRICS_PORT: '0',
+      LOG_LEVEL: 'info',
+      LOG_FORMAT: 'json',
+    },
     stdio: ['ignore', 'pipe', 'pipe'],
   });
   return new Promise((resolve, reject) => {
@@ -122,14 +132,20 @@ function startWorker(db: BenchDatabase, mqttUrl: string, tag: string): Promise<C
     };
     child.stdout!.on('data', onData);
     child.stderr!.on('data', onData);
-    child.once('exit', (code) => reject(new Error(`worker exited (${code}): ${output}`)));
-    // LOG_LEVEL=warn hides the "subscribed" line; poll the broker session instead.
-    setTimeout(() => resolve(child), 4_000);
+    child.once('exit', (code, signal) => signal !== 'SIGTERM' && reject(new Error(`worker exited (${code}): ${output}`)));
   });
 }
 
-async function endToEnd(mqttUrl: string, brokerLabel: string): Promise<{ rowsPerS: number; peakMb: number }> {
-  const tag = `${brokerLabel.replace(/\W/g, '').toLowerCase()}${process.pid}`;
+type Mode = 'live' | 'backlog';
+
+/**
+ * live: the publisher sends while the worker runs (both share the cores).
+ * backlog: everything is queued at the broker while the worker is stopped,
+ * then the worker drains it — the store-and-forward case, and the worker's
+ * own speed without a publisher competing for the CPU.
+ */
+async function endToEnd(mqttUrl: string, brokerLabel: string, mode: Mode): Promise<{ rowsPerS: number; peakMb: number }> {
+  const tag = `${brokerLabel.slice(0, 1)}${mode.slice(0, 1)}${process.pid}`; // short: vessel keys have at most 32 characters
   const db = await benchDatabase();
   let worker: ChildProcess | undefined;
   try {
@@ -149,14 +165,24 @@ async function endToEnd(mqttUrl: string, brokerLabel: string): Promise<{ rowsPer
         else messages.push([topic, JSON.stringify({ records: hour.records[s] })]);
       }
     }
+    let outstanding = 0;
+    const publishAll = async () => {
+      for (const [topic, body] of messages) {
+        while (outstanding >= 500) await new Promise((r) => setTimeout(r, 1));
+        outstanding++;
+        publisher.publish(topic, body, { qos: 1 }, () => outstanding--);
+      }
+      while (outstanding > 0) await new Promise((r) => setTimeout(r, 5));
+    };
+    if (mode === 'backlog') {
+      worker.kill('SIGTERM');
+      await new Promise((r) => worker!.once('exit', r));
+      await publishAll();
+      worker = await startWorker(db, mqttUrl, tag);
+    }
     const cpuBefore = { worker: await cpuSeconds(worker.pid!), postgres: await cpuSeconds(/^postgres/), bench: process.cpuUsage() };
     const started = performance.now();
-    let outstanding = 0;
-    for (const [topic, body] of messages) {
-      while (outstanding >= 500) await new Promise((r) => setTimeout(r, 1));
-      outstanding++;
-      publisher.publish(topic, body, { qos: 1 }, () => outstanding--);
-    }
+    if (mode === 'live') await publishAll();
     for (;;) {
       const stored = await countRows(db);
       if (stored >= EXPECTED_ROWS) break;
@@ -174,7 +200,7 @@ async function endToEnd(mqttUrl: string, brokerLabel: string): Promise<{ rowsPer
     const final = await memoryOf(worker.pid!);
     peakMb = Math.max(peakMb, final.peakMb);
     await publisher.endAsync();
-    console.log(`e2e (${brokerLabel}): ${EXPECTED_ROWS} rows in ${seconds.toFixed(2)} s; worker peak RSS ${peakMb.toFixed(0)} MB`);
+    console.log(`e2e ${mode} (${brokerLabel}): ${EXPECTED_ROWS} rows in ${seconds.toFixed(2)} s; worker peak RSS ${peakMb.toFixed(0)} MB`);
     return { rowsPerS: EXPECTED_ROWS / seconds, peakMb };
   } finally {
     if (worker && process.env.BENCH_WORKER_NODE_ARGS) {
@@ -223,7 +249,7 @@ async function main() {
   const results: { label: string; rowsPerS: number; peakMb: number }[] = [];
   const aedes = await embeddedBroker();
   try {
-    results.push({ label: 'embedded aedes', ...(await endToEnd(aedes.url, 'embedded aedes')) });
+    for (const mode of MODES) results.push({ label: `embedded-aedes ${mode}`, ...(await endToEnd(aedes.url, 'embedded aedes', mode)) });
   } finally {
     await aedes.close();
   }
@@ -231,18 +257,19 @@ async function main() {
   const own = given ? undefined : await ownMosquitto();
   try {
     const url = given ?? own?.url;
-    if (url) results.push({ label: 'mosquitto', ...(await endToEnd(url, 'mosquitto')) });
+    if (url) for (const mode of MODES) results.push({ label: `mosquitto ${mode}`, ...(await endToEnd(url, 'mosquitto', mode)) });
     else console.log('mosquitto: not installed here; set BENCH_MQTT_URL to measure another broker');
   } finally {
     await own?.close();
   }
   for (const r of results) {
     console.log(
-      `broker=${r.label.replace(' ', '-')} worker_peak_rss_mb=${r.peakMb.toFixed(0)} ` +
+      `broker=${r.label.split(' ')[0]} mode=${r.label.split(' ')[1]} worker_peak_rss_mb=${r.peakMb.toFixed(0)} ` +
         `ingest_ratio=${(r.rowsPerS / limitRate).toFixed(2)} e2e_rows_per_s=${Math.round(r.rowsPerS)} limit_rows_per_s=${Math.round(limitRate)}`,
     );
   }
-  const last = results.at(-1)!;
+  // Last line: the live case (publisher and worker sharing the machine), on the last broker measured.
+  const last = results.filter((r) => r.label.endsWith('live')).at(-1)!;
   console.log(`ingest_ratio=${(last.rowsPerS / limitRate).toFixed(2)} e2e_rows_per_s=${Math.round(last.rowsPerS)} limit_rows_per_s=${Math.round(limitRate)}`);
 }
 
