@@ -237,7 +237,9 @@ async function ownMosquitto(): Promise<{ url: string; close(): Promise<void> } |
   return {
     url: `mqtt://127.0.0.1:${port}`,
     close: async () => {
+      const exited = new Promise((r) => child.once('exit', r));
       child.kill('SIGTERM');
+      await exited;
       rmSync(dir, { recursive: true, force: true });
     },
   };

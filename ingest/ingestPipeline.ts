@@ -60,14 +60,15 @@ export interface Submitted {
 const RETRY_MIN_MS = 250;
 const RETRY_MAX_MS = 30_000;
 
-/** PostgreSQL errors worth retrying: connection loss, shutdown, overload, conflicts. */
-function isTransient(error: unknown): boolean {
-  const code = (error as { code?: string }).code ?? '';
-  return (
-    /^(08|53|57P|40001|40P01)/.test(code) ||
-    ['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', 'ENOTFOUND', 'EAI_AGAIN'].includes(code) ||
-    /Connection terminated|connection error|not queryable|timeout/i.test((error as Error).message ?? '')
-  );
+/**
+ * A refusal of the data itself — PostgreSQL error classes 22 (data exception)
+ * and 23 (integrity constraint violation): retrying the same rows cannot
+ * help. Anything else (connection loss, shutdown, overload, a missing
+ * relation) is retried with backoff, never quarantined: it is not the data's
+ * fault, and quarantining valid records would lose them.
+ */
+function isDataRefusal(error: unknown): boolean {
+  return /^2[23]/.test((error as { code?: string }).code ?? '');
 }
 
 const rowsOf = (m: PreparedMessage) => rowsIn(m.batch) + m.rejected.length;
@@ -133,7 +134,7 @@ export class IngestPipeline {
       try {
         return await this.options.handler.read(topic, payload, now);
       } catch (error) {
-        if (this.stopping || !isTransient(error)) throw error;
+        if (this.stopping) throw error;
         this.options.log.warn(`reading a message failed (${(error as Error).message}); retrying in ${wait} ms`);
         await new Promise((r) => setTimeout(r, wait));
         wait = Math.min(wait * 2, RETRY_MAX_MS);
@@ -219,27 +220,15 @@ export class IngestPipeline {
     let wait = RETRY_MIN_MS;
     for (;;) {
       try {
-        const messages = batch.map((w) => w.message);
-        const started = performance.now();
-        const result = await this.write(messages);
-        const commitSeconds = (performance.now() - started) / 1000;
-        this.options.handler.count(messages, result);
+        await this.commit(batch.map((w) => w.message), batch.reduce((n, w) => n + w.rows, 0));
         for (const w of batch) w.resolve();
-        const report = this.options.onFlush;
-        report?.({
-          messages: messages.length,
-          rows: batch.reduce((n, w) => n + w.rows, 0),
-          commitSeconds,
-          result,
-          lagSeconds: lags(messages, Date.now()),
-        });
         return;
       } catch (error) {
         if (this.stopping) {
           for (const w of batch) w.reject(error as Error);
           return;
         }
-        if (!isTransient(error)) return this.isolate(batch, error as Error);
+        if (isDataRefusal(error)) return this.isolate(batch, error as Error);
         this.options.log.warn(`storing ${batch.length} message(s) failed (${(error as Error).message}); retrying in ${wait} ms`);
         await new Promise((r) => setTimeout(r, wait));
         wait = Math.min(wait * 2, RETRY_MAX_MS);
@@ -247,22 +236,38 @@ export class IngestPipeline {
     }
   }
 
+  /** Write messages in one transaction, then count and report it. */
+  private async commit(messages: PreparedMessage[], rows: number): Promise<void> {
+    const started = performance.now();
+    const result = await this.write(messages);
+    const commitSeconds = (performance.now() - started) / 1000;
+    this.options.handler.count(messages, result);
+    const report = this.options.onFlush;
+    report?.({ messages: messages.length, rows, commitSeconds, result, lagSeconds: lags(messages, Date.now()) });
+  }
+
   /** Retry the messages one by one, so one the store refuses cannot hold up the rest. */
   private async isolate(batch: Waiting[], cause: Error): Promise<void> {
     this.options.log.warn(`a batch of ${batch.length} message(s) was refused (${cause.message}); storing them one by one`);
     for (const w of batch) {
       try {
-        const result = await this.write([w.message]);
-        this.options.handler.count([w.message], result);
+        await this.commit([w.message], w.rows);
       } catch (error) {
-        if (isTransient(error)) {
-          // The database went away meanwhile: back to the normal retry path.
+        if (!isDataRefusal(error)) {
+          // Not this message's fault (the database went away meanwhile): back to the retry path.
           await this.flush([w]);
           continue;
         }
         const refused = refusedMessage(w.message, error as Error);
-        const result = await this.write([refused]);
-        this.options.handler.count([refused], result);
+        try {
+          await this.commit([refused], rowsOf(refused));
+        } catch (last) {
+          // Not even the quarantine row could be written: leave the message
+          // unacknowledged (the broker keeps it) and say so loudly.
+          this.options.log.error(`a message from ${w.message.topic} could be neither stored nor quarantined: ${(last as Error).message}`);
+          w.reject(last as Error);
+          continue;
+        }
       }
       w.resolve();
     }

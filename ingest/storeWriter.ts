@@ -189,6 +189,8 @@ export async function writeInTransaction(pool: Pool, messages: PreparedMessage[]
     return result;
   } catch (error) {
     await client.query('ROLLBACK').catch(() => {});
+    // Whatever the transaction created is gone again: staging tables, partitions.
+    stagingReady.delete(client);
     forgetKnownPartitions();
     throw error;
   } finally {

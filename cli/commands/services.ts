@@ -1,6 +1,5 @@
 import type { StatusServer } from '../../ingest/statusServer';
 import type { Config } from '../../lib/config';
-import { startJobRunner } from '../../lib/jobs/runner';
 import type { Logger } from '../../lib/log/logger';
 import { ingestWorkerFor, openStore, statusServerFor } from '../runtime';
 
@@ -48,6 +47,7 @@ export async function ingestCommand(config: Config, log: Logger): Promise<void> 
 export async function jobsCommand(config: Config, log: Logger): Promise<void> {
   requireSetting(config, 'DATABASE_URL');
   const store = await openStore(config, log.child('store'));
+  const { startJobRunner } = await import('../../lib/jobs/runner');
   const runner = await startJobRunner({ connectionString: store.url, pool: store.pool, timeZone: config.FLEET_TIME_ZONE, log: log.child('jobs') });
   await untilSignal(async () => {
     await runner.stop();
