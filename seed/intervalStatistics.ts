@@ -3,8 +3,8 @@
  * radial error histogram (0.1 m bins, overflow bin 100 at ≥ 10 m), mean,
  * RMS and maximum; heading error mean, RMS and largest magnitude.
  */
-export const HIST_BINS = 101;
-export const BIN_WIDTH_M = 0.1;
+import { BIN_WIDTH_M, HIST_BINS } from '../lib/metrics/radialHistogram';
+
 
 export interface PositionErrorStats {
   north_mean: number;
