@@ -5,7 +5,6 @@
  */
 import { BIN_WIDTH_M, HIST_BINS } from '../lib/metrics/radialHistogram';
 
-
 export interface PositionErrorStats {
   north_mean: number;
   east_mean: number;
