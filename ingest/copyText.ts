@@ -11,5 +11,7 @@ function field(value: unknown): string {
 }
 
 export function copyLine(values: readonly unknown[]): string {
-  return values.map(field).join('\t') + '\n';
+  let line = field(values[0]);
+  for (let i = 1; i < values.length; i++) line += '\t' + field(values[i]);
+  return line + '\n';
 }

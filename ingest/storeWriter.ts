@@ -68,18 +68,12 @@ async function ensureStaging(client: PoolClient): Promise<void> {
   stagingReady.add(client);
 }
 
-/** JSON arrays "[1,2]" in row values become PostgreSQL array literals "{1,2}". */
-function copyValues(row: unknown[], columns: readonly (readonly [string, string])[]): unknown[] {
-  return row.map((v, i) => (v !== null && columns[i]![1].startsWith('json:') ? `{${String(v).slice(1, -1)}}` : v));
-}
-
-async function copyRows(client: PoolClient, table: string, columns: readonly (readonly [string, string])[], rows: unknown[][]) {
-  const names = columns.map(([n]) => n).join(', ');
+async function copyRows(client: PoolClient, table: string, columns: readonly string[], rows: unknown[][]) {
   // Lines go out in chunks of about 1 MB: one stream write per line costs more than the COPY itself.
   const chunks = function* () {
     let chunk = '';
     for (const row of rows) {
-      chunk += copyLine(copyValues(row, columns));
+      chunk += copyLine(row);
       if (chunk.length >= 1 << 20) {
         yield chunk;
         chunk = '';
@@ -87,7 +81,7 @@ async function copyRows(client: PoolClient, table: string, columns: readonly (re
     }
     if (chunk) yield chunk;
   };
-  await pipeline(Readable.from(chunks()), client.query(copyFrom(`COPY stage_${table} (${names}) FROM STDIN`)));
+  await pipeline(Readable.from(chunks()), client.query(copyFrom(`COPY stage_${table} (${columns.join(', ')}) FROM STDIN`)));
 }
 
 /** Move the staged rows whose keys are new; the first stored copy of a key wins. */
@@ -166,7 +160,7 @@ export async function writeMessages(client: PoolClient, messages: PreparedMessag
   for (const [stream, rows] of rowsByStream) {
     if (rows.length === 0) continue;
     const { table, columns } = tableSpecs[stream];
-    const tIndex = columns.findIndex(([name]) => name === 't');
+    const tIndex = columns.indexOf('t');
     await ensurePartitions(client, table, rows.map((row) => row[tIndex] as string));
     await copyRows(client, table, columns, rows);
     await client.query(markSql(table), [fleetTimeZone]);

@@ -2,13 +2,13 @@ import { offsetFromSetPoint } from '../geo/wgs84';
 import type { Stream, TelemetryRecord, TrackRecord } from './schemas';
 
 /**
- * How each stream's records become rows of its time-series table. Column
- * lists carry the PostgreSQL array type used to bind a whole batch as one
- * parameter per column (INSERT … SELECT FROM unnest(...)).
+ * How each stream's records become rows of its time-series table, in the
+ * table's column order: values ready for COPY (array columns as PostgreSQL
+ * array literals such as {1,2,3}).
  */
 export interface TableSpec<S extends Stream> {
   table: string;
-  columns: readonly (readonly [name: string, pgArrayType: string])[];
+  columns: readonly string[];
   /** The rows of one record, values in `columns` order (vessel_id first). */
   rows(vesselId: number, record: TelemetryRecord[S]): unknown[][];
 }
@@ -21,27 +21,27 @@ function trackOffset(r: TrackRecord): { north: number; east: number } | undefine
   return offsetFromSetPoint(r.lat, r.lon, r.sp_lat, r.sp_lon);
 }
 
-/** A nested array column travels as a JSON text so unnest keeps it whole. */
-const arrayAsJson = (v: readonly number[] | undefined) => (v === undefined ? null : JSON.stringify(v));
+/** A PostgreSQL array literal, {1,2,3}. */
+const pgArray = (v: readonly number[] | undefined) => (v === undefined ? null : `{${v.join(',')}}`);
 
 export const tableSpecs: { [S in Stream]: TableSpec<S> } = {
   station: {
     table: 'ts_station',
     columns: [
-      ['vessel_id', 'int4[]'], ['t', 'timestamptz[]'], ['dt', 'int2[]'], ['mode', 'text[]'], ['dp_s', 'float4[]'],
-      ['n', 'int4[]'], ['sp_lat', 'float8[]'], ['sp_lon', 'float8[]'], ['sp_hdg', 'float4[]'],
-      ['err_north_mean', 'float4[]'], ['err_east_mean', 'float4[]'], ['err_r_mean', 'float4[]'],
-      ['err_r_rms', 'float4[]'], ['err_r_max', 'float4[]'], ['err_hist', 'json:int4[]'],
-      ['hdg_err_mean', 'float4[]'], ['hdg_err_rms', 'float4[]'], ['hdg_err_max_abs', 'float4[]'],
-      ['wind_ms', 'float4[]'], ['wind_gust_ms', 'float4[]'], ['wind_from_deg', 'float4[]'],
-      ['current_ms', 'float4[]'], ['current_to_deg', 'float4[]'], ['residual_kn', 'float4[]'],
-      ['residual_to_deg', 'float4[]'],
+      'vessel_id', 't', 'dt', 'mode', 'dp_s',
+      'n', 'sp_lat', 'sp_lon', 'sp_hdg',
+      'err_north_mean', 'err_east_mean', 'err_r_mean',
+      'err_r_rms', 'err_r_max', 'err_hist',
+      'hdg_err_mean', 'hdg_err_rms', 'hdg_err_max_abs',
+      'wind_ms', 'wind_gust_ms', 'wind_from_deg',
+      'current_ms', 'current_to_deg', 'residual_kn',
+      'residual_to_deg',
     ],
     rows: (vesselId, r) => [
       [
         vesselId, r.t, r.dt, r.mode, r.dp_s, r.n, nil(r.sp?.lat), nil(r.sp?.lon), nil(r.sp?.hdg),
         nil(r.err?.north_mean), nil(r.err?.east_mean), nil(r.err?.r_mean), nil(r.err?.r_rms), nil(r.err?.r_max),
-        arrayAsJson(r.err?.hist), nil(r.hdg_err?.mean), nil(r.hdg_err?.rms), nil(r.hdg_err?.max_abs),
+        pgArray(r.err?.hist), nil(r.hdg_err?.mean), nil(r.hdg_err?.rms), nil(r.hdg_err?.max_abs),
         nil(r.env?.wind_ms), nil(r.env?.wind_gust_ms), nil(r.env?.wind_from_deg), nil(r.env?.current_ms),
         nil(r.env?.current_to_deg), nil(r.env?.residual_kn), nil(r.env?.residual_to_deg),
       ],
@@ -50,24 +50,24 @@ export const tableSpecs: { [S in Stream]: TableSpec<S> } = {
   thrusters: {
     table: 'ts_thruster',
     columns: [
-      ['vessel_id', 'int4[]'], ['unit_id', 'text[]'], ['t', 'timestamptz[]'], ['dt', 'int2[]'], ['run_s', 'float4[]'],
-      ['starts', 'int4[]'], ['rpm', 'float4[]'], ['pitch_pct', 'float4[]'], ['load_pct_mean', 'float4[]'],
-      ['load_pct_max', 'float4[]'], ['thrust_kn', 'float4[]'], ['power_kw', 'float4[]'], ['azimuth_deg', 'float4[]'],
-      ['azimuth_travel_deg', 'float4[]'], ['load_band_s', 'json:float4[]'],
+      'vessel_id', 'unit_id', 't', 'dt', 'run_s',
+      'starts', 'rpm', 'pitch_pct', 'load_pct_mean',
+      'load_pct_max', 'thrust_kn', 'power_kw', 'azimuth_deg',
+      'azimuth_travel_deg', 'load_band_s',
     ],
     rows: (vesselId, r) =>
       r.units.map((u) => [
         vesselId, u.id, r.t, r.dt, u.run_s, u.starts, nil(u.rpm), nil(u.pitch_pct), nil(u.load_pct_mean),
         nil(u.load_pct_max), nil(u.thrust_kn), nil(u.power_kw), nil(u.azimuth_deg), nil(u.azimuth_travel_deg),
-        arrayAsJson(u.load_band_s),
+        pgArray(u.load_band_s),
       ]),
   },
   power: {
     table: 'ts_power',
     columns: [
-      ['vessel_id', 'int4[]'], ['unit_id', 'text[]'], ['t', 'timestamptz[]'], ['dt', 'int2[]'], ['kw_mean', 'float4[]'],
-      ['kw_max', 'float4[]'], ['kw_available', 'float4[]'], ['gens_online', 'int4[]'], ['limit_s', 'float4[]'],
-      ['limit_events', 'int4[]'], ['blackout', 'bool[]'],
+      'vessel_id', 'unit_id', 't', 'dt', 'kw_mean',
+      'kw_max', 'kw_available', 'gens_online', 'limit_s',
+      'limit_events', 'blackout',
     ],
     rows: (vesselId, r) =>
       r.buses.map((b) => [
@@ -78,8 +78,8 @@ export const tableSpecs: { [S in Stream]: TableSpec<S> } = {
   refs: {
     table: 'ts_ref',
     columns: [
-      ['vessel_id', 'int4[]'], ['unit_id', 'text[]'], ['t', 'timestamptz[]'], ['dt', 'int2[]'], ['kind', 'text[]'],
-      ['online_s', 'float4[]'], ['weight', 'float4[]'], ['sd_m', 'float4[]'], ['rejected', 'int4[]'],
+      'vessel_id', 'unit_id', 't', 'dt', 'kind',
+      'online_s', 'weight', 'sd_m', 'rejected',
     ],
     rows: (vesselId, r) =>
       r.systems.map((s) => [
@@ -89,9 +89,9 @@ export const tableSpecs: { [S in Stream]: TableSpec<S> } = {
   track: {
     table: 'ts_track',
     columns: [
-      ['vessel_id', 'int4[]'], ['t', 'timestamptz[]'], ['lat', 'float8[]'], ['lon', 'float8[]'], ['hdg', 'float4[]'],
-      ['sp_lat', 'float8[]'], ['sp_lon', 'float8[]'], ['sp_hdg', 'float4[]'], ['north_m', 'float4[]'],
-      ['east_m', 'float4[]'],
+      'vessel_id', 't', 'lat', 'lon', 'hdg',
+      'sp_lat', 'sp_lon', 'sp_hdg', 'north_m',
+      'east_m',
     ],
     rows: (vesselId, r) => {
       const offset = trackOffset(r);
