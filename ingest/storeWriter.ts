@@ -90,11 +90,16 @@ const moveSql = (table: string) => `INSERT INTO ${table} SELECT * FROM stage_${t
 /**
  * Mark the (vessel, fleet day) of every staged row dirty — duplicates too:
  * recomputing a day costs less than finding out, row by row, which were new.
+ * One statement per flush, keys in one fixed order, so two flushes running at
+ * once wait for each other instead of deadlocking; a mark that exists already
+ * is left as it is.
  */
-const markSql = (table: string) => `
+const markSql = (tables: string[]) => `
   INSERT INTO dirty_day (vessel_id, day)
-  SELECT DISTINCT vessel_id, (t AT TIME ZONE $1)::date FROM stage_${table}
-  ON CONFLICT (vessel_id, day) DO UPDATE SET marked_at = now()`;
+  SELECT DISTINCT vessel_id, (t AT TIME ZONE $1)::date
+    FROM (${tables.map((table) => `SELECT vessel_id, t FROM stage_${table}`).join(' UNION ALL ')}) AS staged
+  ORDER BY 1, 2
+  ON CONFLICT (vessel_id, day) DO NOTHING`;
 
 /**
  * Months (UTC) already known to have a partition, per table. Call
@@ -157,14 +162,16 @@ export async function writeMessages(client: PoolClient, messages: PreparedMessag
   }
 
   const result: WriteResult = { inserted: 0, duplicates: 0, quarantined: rejected.length, byStream: {} };
-  for (const [stream, rows] of rowsByStream) {
-    if (rows.length === 0) continue;
+  const staged = [...rowsByStream].filter(([, rows]) => rows.length > 0);
+  for (const [stream, rows] of staged) {
     const { table, columns } = tableSpecs[stream];
     const tIndex = columns.indexOf('t');
     await ensurePartitions(client, table, rows.map((row) => row[tIndex] as string));
     await copyRows(client, table, columns, rows);
-    await client.query(markSql(table), [fleetTimeZone]);
-    const inserted = (await client.query(moveSql(table))).rowCount ?? 0;
+  }
+  if (staged.length > 0) await client.query(markSql(staged.map(([stream]) => tableSpecs[stream].table)), [fleetTimeZone]);
+  for (const [stream, rows] of staged) {
+    const inserted = (await client.query(moveSql(tableSpecs[stream].table))).rowCount ?? 0;
     result.byStream[stream] = { inserted, duplicates: rows.length - inserted };
     result.inserted += inserted;
     result.duplicates += rows.length - inserted;
