@@ -1,6 +1,6 @@
 import geodesic from 'geographiclib-geodesic';
 import { describe, expect, it } from 'vitest';
-import { WGS84_A, WGS84_E2, WGS84_F, geodeticToEcef, offsetFromSetPoint } from './wgs84';
+import { WGS84_A, WGS84_E2, WGS84_F, geodeticToEcef, latLonFromOffset, offsetFromSetPoint } from './wgs84';
 
 const G = geodesic.Geodesic.WGS84;
 const DEG = 180 / Math.PI;
@@ -257,5 +257,19 @@ describe('why the ellipsoid', () => {
     expect(G.f).toBe(WGS84_F);
     const e = geodeticToEcef(0, 0);
     expect(e).toEqual({ x: WGS84_A, y: 0, z: 0 });
+  });
+});
+
+describe('latLonFromOffset', () => {
+  // Source: round trip through offsetFromSetPoint (itself checked against geographiclib above).
+  it('is the inverse of offsetFromSetPoint to within a millimetre for DP-sized offsets', () => {
+    for (const [lat, lon] of [[0, 0], [59.4, 2.9], [-45, 170], [75, -20]] as const) {
+      for (const [north, east] of [[0, 0], [3, -4], [-25, 12], [40, 30]] as const) {
+        const p = latLonFromOffset(lat, lon, north, east);
+        const back = offsetFromSetPoint(p.lat, p.lon, lat, lon);
+        expect(Math.abs(back.north - north)).toBeLessThan(1e-3);
+        expect(Math.abs(back.east - east)).toBeLessThan(1e-3);
+      }
+    }
   });
 });

@@ -109,3 +109,22 @@ export function offsetFromSetPoint(
   const enu = ecefToEnu(geodeticToEcef(lat, lon), geodeticToEcef(spLat, spLon), spLat, spLon);
   return { north: enu.north, east: enu.east };
 }
+
+/**
+ * The position `north`, `east` metres from an origin, using the ellipsoid's
+ * meridian and prime-vertical radii of curvature at the origin (standard
+ * result, from memory). The inverse of `offsetFromSetPoint` to within about
+ * s²/R (under 1 mm for offsets of tens of metres); for demo positions and
+ * short offsets, not for surveying.
+ */
+export function latLonFromOffset(originLat: number, originLon: number, north: number, east: number): { lat: number; lon: number } {
+  const phi = (originLat * Math.PI) / 180;
+  const s = Math.sin(phi);
+  const w = Math.sqrt(1 - WGS84_E2 * s * s);
+  const meridianRadius = (WGS84_A * (1 - WGS84_E2)) / (w * w * w);
+  const primeVerticalRadius = WGS84_A / w;
+  return {
+    lat: originLat + (north / meridianRadius) * (180 / Math.PI),
+    lon: originLon + (east / (primeVerticalRadius * Math.cos(phi))) * (180 / Math.PI),
+  };
+}

@@ -1,5 +1,5 @@
 import type { FleetVessel } from '../../lib/register/fleetFile';
-import { WGS84_A, WGS84_E2 } from '../../lib/geo/wgs84';
+import { latLonFromOffset } from '../../lib/geo/wgs84';
 import type { PowerRecord, RefsRecord, StationRecord, ThrustersRecord, TrackRecord } from '../../lib/telemetry/schemas';
 import { headingErrorStats, positionErrorStats, round } from '../intervalStatistics';
 import { seedOf } from '../random';
@@ -12,6 +12,7 @@ import { Environment, waveDriftForce, windForce } from './environment';
 import { AxisFilter } from './estimator';
 import { PowerPlant } from './power';
 import { ReferenceSystems } from './references';
+import { reduceBuses, reduceReferences, reduceThrusters, type BusSums, type ThrusterSums } from './intervalRecords';
 import { ThrusterBank, thrusterLayout, type ThrusterSpec } from './thrusters';
 import { stepVessel, vesselModel, type VesselModel, type VesselState } from './vesselModel';
 
@@ -107,11 +108,8 @@ export class VesselSimulator {
   private errN: number[] = [];
   private errE: number[] = [];
   private errH: number[] = [];
-  private readonly u: {
-    run: Float64Array; rpm: Float64Array; loadSum: Float64Array; loadMax: Float64Array; thrust: Float64Array;
-    power: Float64Array; cos: Float64Array; sin: Float64Array; travel: Float64Array; bands: Float64Array;
-  };
-  private readonly b: { kw: Float64Array; kwMax: Float64Array; avail: Float64Array; limitS: Float64Array; events: Int32Array };
+  private readonly u: ThrusterSums;
+  private readonly b: BusSums;
   private readonly acc = { windSum: 0, windCos: 0, windSin: 0, gustMax: 0, w1: 0, w2: 0, curN: 0, curE: 0, resN: 0, resE: 0 };
   /** Last true position error from the set point (m) and heading error (rad), for tests. */
   trueErrN = 0;
@@ -375,58 +373,9 @@ export class VesselSimulator {
       hdg_err: headingErrorStats(this.errH),
       env,
     };
-    const u = this.u;
-    const units = this.specs.map((sp, k) => {
-      const run = u.run[k]!;
-      if (run === 0) return { id: sp.id, run_s: 0, starts: 0 };
-      return {
-        id: sp.id,
-        run_s: run,
-        starts: 0,
-        rpm: round(u.rpm[k]! / run, 1),
-        load_pct_mean: round(u.loadSum[k]! / run, 2),
-        load_pct_max: round(u.loadMax[k]!, 2),
-        thrust_kn: round(u.thrust[k]! / run / 1000, 2),
-        power_kw: round(u.power[k]! / run / 1000, 1),
-        ...(sp.azimuthing
-          ? {
-              azimuth_deg: round(deg360(Math.atan2(u.sin[k]!, u.cos[k]!)), 1) % 360,
-              azimuth_travel_deg: round(u.travel[k]! / DEG, 1),
-            }
-          : {}),
-        load_band_s: Array.from(u.bands.subarray(k * 11, k * 11 + 11)),
-      };
-    });
-    const b = this.b, plant = this.plant;
-    const busIds = this.vessel.buses.length ? this.vessel.buses.map((x) => x.id) : ['MAIN'];
-    const buses = busIds.map((id, k) => ({
-      id,
-      kw_mean: round(b.kw[k]! / dt, 1),
-      kw_max: round(b.kwMax[k]!, 1),
-      kw_available: round(b.avail[k]! / dt, 1),
-      gens_online: plant.gens[k]!,
-      limit_s: b.limitS[k]!,
-      limit_events: b.events[k]!,
-      blackout: false,
-    }));
-    const refs = this.refs;
-    const systems = refs.ids.map((id, k) => {
-      const n = refs.resCount[k]!;
-      let sd: number | undefined;
-      if (n >= 2) {
-        const vn = Math.max(0, refs.resN2[k]! / n - (refs.resN[k]! / n) ** 2);
-        const ve = Math.max(0, refs.resE2[k]! / n - (refs.resE[k]! / n) ** 2);
-        sd = round(Math.sqrt((vn + ve) / 2), 3);
-      }
-      return {
-        id,
-        kind: refs.kinds[k]!,
-        online_s: refs.onlineS[k]!,
-        weight: round(refs.weightSum[k]! / dt, 3),
-        ...(sd !== undefined ? { sd_m: sd } : {}),
-        rejected: refs.rejected[k]!,
-      };
-    });
+    const units = reduceThrusters(this.specs, this.u);
+    const buses = reduceBuses(this.vessel.buses.length ? this.vessel.buses.map((x) => x.id) : ['MAIN'], this.b, this.plant.gens, dt);
+    const systems = reduceReferences(this.refs, dt);
     return {
       station,
       thrusters: { v: 1, t, dt, units },
@@ -435,19 +384,12 @@ export class VesselSimulator {
     };
   }
 
-  /** Local tangent plane → WGS84 (meridian and prime-vertical radii at the site; fine for offsets of km). */
   private latOf(north: number): number {
-    const sl = Math.sin(this.site.lat * DEG);
-    const w = Math.sqrt(1 - WGS84_E2 * sl * sl);
-    const rm = (WGS84_A * (1 - WGS84_E2)) / (w * w * w);
-    return this.site.lat + north / rm / DEG;
+    return latLonFromOffset(this.site.lat, this.site.lon, north, 0).lat;
   }
 
   private lonOf(east: number): number {
-    const lat0 = this.site.lat * DEG;
-    const sl = Math.sin(lat0);
-    const rn = WGS84_A / Math.sqrt(1 - WGS84_E2 * sl * sl);
-    return this.site.lon + east / (rn * Math.cos(lat0)) / DEG;
+    return latLonFromOffset(this.site.lat, this.site.lon, 0, east).lon;
   }
 
   private trackRecord(ms: number): TrackRecord {

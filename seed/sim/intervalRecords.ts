@@ -1,0 +1,88 @@
+import type { PowerRecord, RefsRecord, ThrustersRecord } from '../../lib/telemetry/schemas';
+import { round } from '../intervalStatistics';
+import { DEG, deg360 } from './constants';
+import type { ReferenceSystems } from './references';
+import type { ThrusterSpec } from './thrusters';
+
+/**
+ * The per-unit parts of an interval's records, from the sums the 1 Hz loop
+ * keeps in typed arrays (index = unit; `bands` holds 11 load bands per unit).
+ */
+export interface ThrusterSums {
+  run: Float64Array;
+  rpm: Float64Array;
+  loadSum: Float64Array;
+  loadMax: Float64Array;
+  thrust: Float64Array;
+  power: Float64Array;
+  cos: Float64Array;
+  sin: Float64Array;
+  travel: Float64Array;
+  bands: Float64Array;
+}
+
+export interface BusSums {
+  kw: Float64Array;
+  kwMax: Float64Array;
+  avail: Float64Array;
+  limitS: Float64Array;
+  events: Int32Array;
+}
+
+export function reduceThrusters(specs: readonly ThrusterSpec[], u: ThrusterSums): ThrustersRecord['units'] {
+  return specs.map((sp, k) => {
+    const run = u.run[k]!;
+    if (run === 0) return { id: sp.id, run_s: 0, starts: 0 };
+    return {
+      id: sp.id,
+      run_s: run,
+      starts: 0,
+      rpm: round(u.rpm[k]! / run, 1),
+      load_pct_mean: round(u.loadSum[k]! / run, 2),
+      load_pct_max: round(u.loadMax[k]!, 2),
+      thrust_kn: round(u.thrust[k]! / run / 1000, 2),
+      power_kw: round(u.power[k]! / run / 1000, 1),
+      ...(sp.azimuthing
+        ? {
+            azimuth_deg: round(deg360(Math.atan2(u.sin[k]!, u.cos[k]!)), 1) % 360,
+            azimuth_travel_deg: round(u.travel[k]! / DEG, 1),
+          }
+        : {}),
+      load_band_s: Array.from(u.bands.subarray(k * 11, k * 11 + 11)),
+    };
+  });
+}
+
+export function reduceBuses(ids: readonly string[], b: BusSums, gensOnline: Int32Array, dt: number): PowerRecord['buses'] {
+  return ids.map((id, k) => ({
+    id,
+    kw_mean: round(b.kw[k]! / dt, 1),
+    kw_max: round(b.kwMax[k]!, 1),
+    kw_available: round(b.avail[k]! / dt, 1),
+    gens_online: gensOnline[k]!,
+    limit_s: b.limitS[k]!,
+    limit_events: b.events[k]!,
+    blackout: false,
+  }));
+}
+
+/** Reference systems: sd_m is the standard deviation of the residual (needs ≥ 2 samples). */
+export function reduceReferences(refs: ReferenceSystems, dt: number): RefsRecord['systems'] {
+  return refs.ids.map((id, k) => {
+    const n = refs.resCount[k]!;
+    let sd: number | undefined;
+    if (n >= 2) {
+      const vn = Math.max(0, refs.resN2[k]! / n - (refs.resN[k]! / n) ** 2);
+      const ve = Math.max(0, refs.resE2[k]! / n - (refs.resE[k]! / n) ** 2);
+      sd = round(Math.sqrt((vn + ve) / 2), 3);
+    }
+    return {
+      id,
+      kind: refs.kinds[k]!,
+      online_s: refs.onlineS[k]!,
+      weight: round(refs.weightSum[k]! / dt, 3),
+      ...(sd !== undefined ? { sd_m: sd } : {}),
+      rejected: refs.rejected[k]!,
+    };
+  });
+}
