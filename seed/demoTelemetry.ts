@@ -1,5 +1,6 @@
 import type { FleetVessel } from '../lib/register/fleetFile';
-import type { PowerRecord, RefsRecord, StationRecord, ThrustersRecord } from '../lib/telemetry/schemas';
+import { latLonFromOffset } from '../lib/geo/wgs84';
+import type { PowerRecord, RefsRecord, StationRecord, ThrustersRecord, TrackRecord } from '../lib/telemetry/schemas';
 import { headingErrorStats, positionErrorStats, round } from './intervalStatistics';
 import { Random, seedOf } from './random';
 import type { DemoSite } from './sites';
@@ -19,6 +20,8 @@ const HOTEL_KW = 400;
 const REF_SD_M: Record<string, number> = { gnss: 0.35, hydroacoustic: 0.6, laser: 0.12, radar: 0.45, taut_wire: 0.25, other: 0.5 };
 
 export interface DemoRecords {
+  /** 1 Hz positions of the interval (telemetry-v1 `track`): true position = set point + error. */
+  track: TrackRecord[];
   station: StationRecord;
   thrusters: ThrustersRecord;
   power: PowerRecord;
@@ -159,6 +162,20 @@ export class DemoVessel {
       })),
     };
 
-    return { station, thrusters: { v: 1, t, dt, units }, power, refs };
+    const track: TrackRecord[] = north.map((n, i) => {
+      const p = latLonFromOffset(this.site.lat, this.site.lon, n, east[i]!);
+      return {
+        v: 1,
+        t: new Date(tMs + i * 1000).toISOString(),
+        lat: round(p.lat, 7),
+        lon: round(p.lon, 7),
+        hdg: round((this.site.heading + heading[i]! + 360) % 360, 2),
+        sp_lat: this.site.lat,
+        sp_lon: this.site.lon,
+        sp_hdg: this.site.heading,
+      };
+    });
+
+    return { track, station, thrusters: { v: 1, t, dt, units }, power, refs };
   }
 }

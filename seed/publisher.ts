@@ -88,10 +88,13 @@ export class DemoPublisher {
     void tick();
   }
 
+  /** Live intervals also send their 1 Hz track as one batch (history does not: 86,400 rows a vessel-day). */
   private async publishInterval(vessel: DemoVessel, records: DemoRecords) {
     for (const stream of STREAMS) {
       await this.client!.publishAsync(topicFor(this.options.topicRoot, vessel.vessel.key, stream), JSON.stringify(records[stream]), { qos: 1 });
     }
+    const track = topicFor(this.options.topicRoot, vessel.vessel.key, 'track');
+    await this.client!.publishAsync(track, JSON.stringify({ records: records.track }), { qos: 1 });
   }
 
   async stop(): Promise<void> {
