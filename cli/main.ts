@@ -2,6 +2,7 @@ import { parseArgs } from 'node:util';
 import { ConfigError, loadConfig } from '../lib/config';
 import { createLogger } from '../lib/log/logger';
 import { FleetFileError } from '../lib/register/fleetFile';
+import { UsageError } from './usageError';
 
 const HELP = `holdfast — fleet station-keeping analytics (advisory, after the fact)
 
@@ -12,6 +13,8 @@ Usage: holdfast <command> [options]     (or: npm run holdfast -- <command> …)
   fleet import FILE       import a fleet register file (JSON or YAML, fleet-v1)
   ingest                  run one ingest worker (needs DATABASE_URL and MQTT_URL)
   jobs                    run the job scheduler (needs DATABASE_URL)
+  jobs run --from DAY --to DAY
+                          compute the daily figures of those days now, and wait
   help                    this text
 
 Settings come from the environment; see README.md.`;
@@ -20,7 +23,12 @@ async function main(argv: string[]): Promise<void> {
   const { positionals, values } = parseArgs({
     args: argv,
     allowPositionals: true,
-    options: { 'no-web': { type: 'boolean', default: false }, help: { type: 'boolean', short: 'h' } },
+    options: {
+      'no-web': { type: 'boolean', default: false },
+      help: { type: 'boolean', short: 'h' },
+      from: { type: 'string' },
+      to: { type: 'string' },
+    },
   });
   const [command, ...rest] = positionals;
   if (!command || command === 'help' || values.help) {
@@ -39,6 +47,10 @@ async function main(argv: string[]): Promise<void> {
     case 'ingest':
       return (await import('./commands/services')).ingestCommand(config, log);
     case 'jobs':
+      if (rest[0] === 'run') {
+        if (!values.from || !values.to) throw new UsageError('usage: holdfast jobs run --from YYYY-MM-DD --to YYYY-MM-DD');
+        return (await import('./commands/jobsRun')).jobsRunCommand(config, log, values.from, values.to);
+      }
       return (await import('./commands/services')).jobsCommand(config, log);
     case 'fleet':
       if (rest[0] === 'import' && rest[1]) return (await import('./commands/fleetImport')).fleetImportCommand(config, log, rest[1]);
@@ -48,7 +60,6 @@ async function main(argv: string[]): Promise<void> {
   }
 }
 
-class UsageError extends Error {}
 
 main(process.argv.slice(2)).catch((error: unknown) => {
   // Expected failures print one clear message; anything else shows its stack.

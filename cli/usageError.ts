@@ -1,0 +1,2 @@
+/** A command used wrongly: printed as its one-line message, exit code 2. */
+export class UsageError extends Error {}
