@@ -1,8 +1,11 @@
-import type { PowerRecord, RefsRecord, ThrustersRecord } from '../../lib/telemetry/schemas';
+import { latLonFromOffset } from '../../lib/geo/wgs84';
+import type { PowerRecord, RefsRecord, StationRecord, ThrustersRecord, TrackRecord } from '../../lib/telemetry/schemas';
+import type { DemoSite } from '../sites';
 import { round } from '../intervalStatistics';
 import { DEG, deg360 } from './constants';
 import type { ReferenceSystems } from './references';
 import type { ThrusterSpec } from './thrusters';
+import type { VesselState } from './vesselModel';
 
 /**
  * The per-unit parts of an interval's records, from the sums the 1 Hz loop
@@ -85,4 +88,31 @@ export function reduceReferences(refs: ReferenceSystems, dt: number): RefsRecord
       rejected: refs.rejected[k]!,
     };
   });
+}
+
+/** Position `north`, `east` m from the site, rounded to 1e-7° (about 1 cm). */
+function position(site: DemoSite, north: number, east: number): { lat: number; lon: number } {
+  const p = latLonFromOffset(site.lat, site.lon, north, east);
+  return { lat: round(p.lat, 7), lon: round(p.lon, 7) };
+}
+
+/** The station record's set point (heading in radians in, degrees out). */
+export function setPointOf(site: DemoSite, spN: number, spE: number, spHdg: number): NonNullable<StationRecord['sp']> {
+  return { ...position(site, spN, spE), hdg: round(deg360(spHdg), 2) % 360 };
+}
+
+/** One 1 Hz `track` record: the true position and its set point. */
+export function trackRecord(site: DemoSite, ms: number, state: VesselState, spN: number, spE: number, spHdg: number): TrackRecord {
+  const here = position(site, state.north, state.east);
+  const sp = setPointOf(site, spN, spE, spHdg);
+  return {
+    v: 1,
+    t: new Date(ms).toISOString(),
+    lat: here.lat,
+    lon: here.lon,
+    hdg: round(deg360(state.psi), 2) % 360,
+    sp_lat: sp.lat,
+    sp_lon: sp.lon,
+    sp_hdg: sp.hdg,
+  };
 }

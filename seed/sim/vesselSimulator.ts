@@ -1,5 +1,4 @@
 import type { FleetVessel } from '../../lib/register/fleetFile';
-import { latLonFromOffset } from '../../lib/geo/wgs84';
 import type { PowerRecord, RefsRecord, StationRecord, ThrustersRecord, TrackRecord } from '../../lib/telemetry/schemas';
 import { headingErrorStats, positionErrorStats, round } from '../intervalStatistics';
 import { seedOf } from '../random';
@@ -12,7 +11,7 @@ import { Environment, waveDriftForce, windForce } from './environment';
 import { AxisFilter } from './estimator';
 import { PowerPlant } from './power';
 import { ReferenceSystems } from './references';
-import { reduceBuses, reduceReferences, reduceThrusters, type BusSums, type ThrusterSums } from './intervalRecords';
+import { reduceBuses, reduceReferences, reduceThrusters, setPointOf, trackRecord, type BusSums, type ThrusterSums } from './intervalRecords';
 import { ThrusterBank, thrusterLayout, type ThrusterSpec } from './thrusters';
 import { stepVessel, vesselModel, type VesselModel, type VesselState } from './vesselModel';
 
@@ -177,7 +176,7 @@ export class VesselSimulator {
     const track: TrackRecord[] | undefined = this.opts.track ? [] : undefined;
     for (let i = 0; i < dt; i++) {
       this.step(t0 + i, i);
-      if (track) track.push(this.trackRecord((t0 + i) * 1000));
+      if (track) track.push(trackRecord(this.site, (t0 + i) * 1000, this.state, this.spN, this.spE, this.spHdg));
     }
     this.nextS = t0 + dt;
     const records = this.reduce(tMs, dt);
@@ -368,7 +367,7 @@ export class VesselSimulator {
       mode: 'auto_position',
       dp_s: dt,
       n: dt,
-      sp: { lat: round(this.latOf(this.spN), 7), lon: round(this.lonOf(this.spE), 7), hdg: round(deg360(this.spHdg), 2) % 360 },
+      sp: setPointOf(this.site, this.spN, this.spE, this.spHdg),
       err: positionErrorStats(this.errN, this.errE),
       hdg_err: headingErrorStats(this.errH),
       env,
@@ -381,28 +380,6 @@ export class VesselSimulator {
       thrusters: { v: 1, t, dt, units },
       power: { v: 1, t, dt, buses },
       refs: { v: 1, t, dt, systems },
-    };
-  }
-
-  private latOf(north: number): number {
-    return latLonFromOffset(this.site.lat, this.site.lon, north, 0).lat;
-  }
-
-  private lonOf(east: number): number {
-    return latLonFromOffset(this.site.lat, this.site.lon, 0, east).lon;
-  }
-
-  private trackRecord(ms: number): TrackRecord {
-    const st = this.state;
-    return {
-      v: 1,
-      t: new Date(ms).toISOString(),
-      lat: round(this.latOf(st.north), 7),
-      lon: round(this.lonOf(st.east), 7),
-      hdg: round(deg360(st.psi), 2) % 360,
-      sp_lat: round(this.latOf(this.spN), 7),
-      sp_lon: round(this.lonOf(this.spE), 7),
-      sp_hdg: round(deg360(this.spHdg), 2) % 360,
     };
   }
 }
