@@ -43,7 +43,7 @@ describe('daily roll-up and dirty days', () => {
     expect(utc.rows[0]).toEqual({ dp_hours: 22 * 0.5 + 1, station_records: 23 });
   });
 
-  it('recomputes dirty days once and clears their marks; a day without data has zero hours', async () => {
+  it('recomputes dirty days once and clears their marks; a day without telemetry has no row (a gap, not zeros)', async () => {
     await db.pool.query(`INSERT INTO dirty_day (vessel_id, day) VALUES ($1, '2026-03-29'), ($1, '2026-04-10')`, [vesselId]);
     const done = await recomputeDirtyDays(db.pool, 'UTC');
     expect(done).toEqual([
@@ -52,7 +52,7 @@ describe('daily roll-up and dirty days', () => {
     ]);
     expect((await db.pool.query('SELECT count(*)::int AS n FROM dirty_day')).rows[0].n).toBe(0);
     const empty = await db.pool.query(`SELECT dp_hours, station_records FROM daily_vessel WHERE day = '2026-04-10'`);
-    expect(empty.rows[0]).toEqual({ dp_hours: 0, station_records: 0 });
+    expect(empty.rows).toEqual([]);
     expect(await recomputeDirtyDays(db.pool, 'UTC')).toEqual([]);
   });
 
@@ -63,6 +63,31 @@ describe('daily roll-up and dirty days', () => {
     const [a, b] = await Promise.all([recomputeDirtyDays(db.pool, 'UTC', 5), recomputeDirtyDays(db.pool, 'UTC', 5)]);
     const taken = [...a, ...b].map((d) => d.day);
     expect(new Set(taken).size).toBe(taken.length);
+  });
+
+  it('recomputing a day re-evaluates p95_norm of the days whose baseline holds it', async () => {
+    // 150 stored days (2025-01-01 …) that follow p95 = 0.4 + 0.02·W² exactly
+    // (synthetic), written without p95_norm, as if computed before a fit existed.
+    const v = await db.pool.query(
+      `INSERT INTO vessel (key, name, type, dp_class, watch_circles_m, heading_limits_deg)
+       VALUES ('norm-one', 'Norm One', 'supply', 2, '{3,5}', '{3,5}') RETURNING id`,
+    );
+    const id = v.rows[0].id;
+    await db.pool.query(
+      `INSERT INTO daily_vessel (vessel_id, day, station_records, dp_intervals, dp_hours, samples, p95_m, p95_overflow, wind_mean_ms)
+       SELECT $1, date '2025-01-01' + i, 1, 1, 1, 1, 0.4 + 0.02 * w * w, false, w
+         FROM generate_series(0, 149) AS i, LATERAL (SELECT 3 + (i * 7) % 13 AS w) x`,
+      [id],
+    );
+    const norm = async (day: string) =>
+      (await db.pool.query(`SELECT p95_norm FROM daily_vessel WHERE vessel_id = $1 AND day = $2`, [id, day])).rows[0]?.p95_norm;
+    expect(await norm('2025-04-30')).toBeNull();
+    // Day 0 received no telemetry, so recomputing it removes its row; every
+    // day up to day 119 has day 0 in its baseline and is re-evaluated.
+    await recomputeDays(db.pool, [{ vesselId: id, day: '2025-01-01' }], 'UTC');
+    expect(await norm('2025-01-01')).toBeUndefined();
+    expect(await norm('2025-04-30')).toBeCloseTo(1, 9); // day 119
+    expect(await norm('2025-05-01')).toBeNull(); // day 120: outside the re-evaluated range, untouched
   });
 
   it('keeps partitions three months ahead', async () => {

@@ -42,7 +42,7 @@ describe('holdfast jobs run', () => {
     expect(await daily()).toEqual([
       { day: '2026-11-20', dp_hours: 0.5, station_records: 30 },
       { day: '2026-11-21', dp_hours: 1.5, station_records: 90 },
-      { day: '2026-11-22', dp_hours: 0, station_records: 0 },
+      // 2026-11-22 received no telemetry: no row (a gap, never zeros).
     ]);
   });
 

@@ -5,9 +5,6 @@ import { daysBetween } from '../../lib/time/dayRange';
 import { openStore } from '../runtime';
 import { UsageError } from '../usageError';
 
-/** Vessel-days per statement: big enough to be quick, small enough to show progress. */
-const CHUNK = 200;
-
 /**
  * `holdfast jobs run --from DAY --to DAY`: compute the daily figures of every
  * registered vessel for those fleet days now, and return when done — so a
@@ -26,10 +23,7 @@ export async function jobsRunCommand(config: Config, log: Logger, from: string, 
     const { rows } = await store.pool.query<{ id: number }>('SELECT id FROM vessel ORDER BY id');
     const work: VesselDay[] = days.flatMap((day) => rows.map((r) => ({ vesselId: r.id, day })));
     const started = Date.now();
-    for (let i = 0; i < work.length; i += CHUNK) {
-      await recomputeDays(store.pool, work.slice(i, i + CHUNK), config.FLEET_TIME_ZONE);
-      progress(Math.min(i + CHUNK, work.length), work.length);
-    }
+    await recomputeDays(store.pool, work, config.FLEET_TIME_ZONE, progress);
     process.stderr.write('\n');
     console.log(
       `computed ${work.length} vessel-day(s): ${rows.length} vessel(s) × ${days.length} day(s) ` +

@@ -1,0 +1,119 @@
+import type { PoolClient } from 'pg';
+import {
+  BUS_SQL,
+  REF_SQL,
+  REGISTER_SQL,
+  STATION_SQL,
+  THRUSTER_SQL,
+  type BusAggregate,
+  type RefAggregate,
+  type RegisterEntry,
+  type StationAggregate,
+  type ThrusterAggregate,
+} from './aggregateSql';
+import { refDayRow, thrusterDayRow, vesselDayRow, type DailyVesselRow } from './figures';
+import { affectedRange, normalisedDays, type StoredDay } from './normalisation';
+import { deleteDays, insertDailyRows, updateP95Norm } from './writeRows';
+
+export interface VesselDay {
+  vesselId: number;
+  day: string;
+}
+
+/** Advisory-lock namespace of the daily job (first key of pg_advisory_xact_lock(int, int)). */
+export const DAILY_LOCK_NAMESPACE = 0x486f6c64; // "Hold"
+
+const keyOf = (vesselId: number, day: string) => `${vesselId}/${day}`;
+
+function groupBy<T extends { vessel_id: number; day: string }>(rows: readonly T[]): Map<string, T[]> {
+  const m = new Map<string, T[]>();
+  for (const r of rows) {
+    const k = keyOf(r.vessel_id, r.day);
+    const list = m.get(k);
+    if (list) list.push(r);
+    else m.set(k, [r]);
+  }
+  return m;
+}
+
+/**
+ * Recompute the daily rows of a batch of vessel-days inside the caller's
+ * transaction, then the p95_norm of every day whose baseline they touch.
+ *
+ * Each vessel of the batch is locked first (transaction-scoped advisory
+ * locks, taken in vessel order so two batches cannot deadlock): two job
+ * processes never compute the same vessel at once, and the p95_norm pass
+ * reads a vessel's days while nobody else rewrites them.
+ */
+export async function computeBatch(client: PoolClient, batch: readonly VesselDay[], timeZone: string): Promise<void> {
+  const unique = new Map(batch.map((b) => [keyOf(b.vesselId, b.day), b]));
+  const work = [...unique.values()];
+  if (work.length === 0) return;
+  const vesselIds = work.map((w) => w.vesselId);
+  const days = work.map((w) => w.day);
+  const distinctVessels = [...new Set(vesselIds)].sort((a, b) => a - b);
+  await client.query('SELECT pg_advisory_xact_lock($1, v) FROM unnest($2::int[]) AS v ORDER BY v', [DAILY_LOCK_NAMESPACE, distinctVessels]);
+
+  const params = [vesselIds, days, timeZone];
+  const station = await client.query<StationAggregate>(STATION_SQL, params);
+  const thrusters = await client.query<ThrusterAggregate>(THRUSTER_SQL, params);
+  const buses = await client.query<BusAggregate>(BUS_SQL, params);
+  const refs = await client.query<RefAggregate>(REF_SQL, params);
+  const register = await client.query<RegisterEntry>(REGISTER_SQL, [distinctVessels]);
+  const registerOf = new Map(register.rows.map((r) => [r.vessel_id, r]));
+
+  const stationOf = new Map(station.rows.map((r) => [keyOf(r.vessel_id, r.day), r]));
+  const busesOf = groupBy(buses.rows);
+  const thrustersOf = groupBy(thrusters.rows);
+  const refsOf = groupBy(refs.rows);
+
+  const vesselRows: DailyVesselRow[] = [];
+  for (const w of work) {
+    const k = keyOf(w.vesselId, w.day);
+    const s = stationOf.get(k);
+    const b = busesOf.get(k) ?? [];
+    // A vessel-day that received no telemetry at all has no row (a gap, not zeros).
+    if (!s && b.length === 0 && !thrustersOf.has(k) && !refsOf.has(k)) continue;
+    vesselRows.push(vesselDayRow({ vessel_id: w.vesselId, day: w.day }, s, b, registerOf.get(w.vesselId)?.watch_circles_m ?? []));
+  }
+  const thrusterRows = thrusters.rows.map((a) => thrusterDayRow(a, registerOf.get(a.vessel_id)?.life_exponents[a.unit_id]));
+
+  await deleteDays(client, vesselIds, days);
+  await insertDailyRows(client, { vessel: vesselRows, thruster: thrusterRows, bus: buses.rows, ref: refs.rows.map(refDayRow) });
+  await renormalise(client, work);
+}
+
+/** Re-evaluate p95_norm for each vessel's changed days and the days whose baselines hold them. */
+async function renormalise(client: PoolClient, work: readonly VesselDay[]): Promise<void> {
+  const ranges = new Map<number, { from: string; to: string }>();
+  for (const w of work) {
+    const r = ranges.get(w.vesselId);
+    if (!r) ranges.set(w.vesselId, { from: w.day, to: w.day });
+    else {
+      if (w.day < r.from) r.from = w.day;
+      if (w.day > r.to) r.to = w.day;
+    }
+  }
+  const affected = new Map([...ranges].map(([v, r]) => [v, affectedRange(r.from, r.to)]));
+  const readFrom = [...affected.values()].reduce((m, a) => (a.readFrom < m ? a.readFrom : m), '9999-12-31');
+  const readTo = [...affected.values()].reduce((m, a) => (a.evaluateTo > m ? a.evaluateTo : m), '0000-01-01');
+  const { rows } = await client.query<StoredDay & { vessel_id: number }>(
+    `SELECT vessel_id, day::text AS day, p95_m, p95_overflow, wind_mean_ms, current_mean_ms
+       FROM daily_vessel
+      WHERE vessel_id = ANY($1::int[]) AND day BETWEEN $2 AND $3
+      ORDER BY vessel_id, day`,
+    [[...affected.keys()], readFrom, readTo],
+  );
+  const byVessel = new Map<number, StoredDay[]>();
+  for (const r of rows) {
+    const list = byVessel.get(r.vessel_id);
+    if (list) list.push(r);
+    else byVessel.set(r.vessel_id, [r]);
+  }
+  const updates: { vessel_id: number; day: string; p95_norm: number | null }[] = [];
+  for (const [vesselId, a] of affected) {
+    const norms = normalisedDays(byVessel.get(vesselId) ?? [], a.evaluateFrom, a.evaluateTo);
+    for (const [day, p95_norm] of norms) updates.push({ vessel_id: vesselId, day, p95_norm });
+  }
+  await updateP95Norm(client, updates);
+}
