@@ -27,18 +27,42 @@ async function inTransaction<T>(pool: Pool, body: (client: PoolClient) => Promis
   }
 }
 
-/** Recompute these vessel-days now, in batches of BATCH_VESSEL_DAYS (one transaction each). */
+/** Batches computed at once by recomputeDays (each on its own connection). */
+export const DEFAULT_CONCURRENCY = 2;
+
+/**
+ * Recompute these vessel-days now: sorted by vessel then day and cut into
+ * batches of BATCH_VESSEL_DAYS (one transaction each), `concurrency` batches
+ * at a time. Sorting by vessel keeps concurrent batches on different vessels
+ * (each batch locks its vessels) and their days in contiguous ranges.
+ */
 export async function recomputeDays(
   pool: Pool,
   days: readonly VesselDay[],
   timeZone: string,
   onProgress?: (done: number, total: number) => void,
+  concurrency = DEFAULT_CONCURRENCY,
 ): Promise<void> {
-  for (let i = 0; i < days.length; i += BATCH_VESSEL_DAYS) {
-    const batch = days.slice(i, i + BATCH_VESSEL_DAYS);
-    await inTransaction(pool, (client) => computeBatch(client, batch, timeZone));
-    onProgress?.(Math.min(i + BATCH_VESSEL_DAYS, days.length), days.length);
-  }
+  const sorted = [...days].sort((a, b) => a.vesselId - b.vesselId || (a.day < b.day ? -1 : a.day > b.day ? 1 : 0));
+  const batches: VesselDay[][] = [];
+  for (let i = 0; i < sorted.length; i += BATCH_VESSEL_DAYS) batches.push(sorted.slice(i, i + BATCH_VESSEL_DAYS));
+  let next = 0;
+  let done = 0;
+  let failed = false;
+  const lane = async () => {
+    while (next < batches.length && !failed) {
+      const batch = batches[next++]!;
+      try {
+        await inTransaction(pool, (client) => computeBatch(client, batch, timeZone));
+      } catch (error) {
+        failed = true; // the other lane stops after its current batch
+        throw error;
+      }
+      done += batch.length;
+      onProgress?.(done, sorted.length);
+    }
+  };
+  await Promise.all(Array.from({ length: Math.max(1, Math.min(concurrency, batches.length)) }, lane));
 }
 
 /**

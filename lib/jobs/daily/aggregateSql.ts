@@ -15,27 +15,33 @@
  * intervals' `err.hist` arrays come back as one text per vessel-day (bins
  * separated by ',', intervals by ';') and histogramText.ts adds them up.
  *
- * Parameters of every query: $1 vessel ids (int[]), $2 days (date[]), the
- * two zipped; $3 the fleet IANA time zone. A fleet day runs from its local
- * midnight to the next (`day::timestamp AT TIME ZONE tz`), so a 23- or
- * 25-hour DST day is right. float4 columns are widened before arithmetic.
+ * Parameters of every query: ranges of consecutive fleet days per vessel —
+ * $1 vessel ids (int[]), $2 first days, $3 last days (date[], inclusive),
+ * zipped — and $4 the fleet IANA time zone. A range runs from the local
+ * midnight starting its first day to the one ending its last
+ * (`day::timestamp AT TIME ZONE tz`), and each row is grouped by its local
+ * day (`t AT TIME ZONE tz`), so a 23- or 25-hour DST day is right. Ranges
+ * rather than single days: a row is matched to its range once, instead of
+ * being compared with every requested day of its vessel. float4 columns are
+ * widened before arithmetic.
  */
 
 const BATCH = `
   WITH d AS (
-    SELECT vessel_id, day,
-           (day::timestamp AT TIME ZONE $3) AS t0,
-           ((day + 1)::timestamp AT TIME ZONE $3) AS t1
-      FROM unnest($1::int[], $2::date[]) AS u (vessel_id, day))`;
+    SELECT vessel_id,
+           (first_day::timestamp AT TIME ZONE $4) AS t0,
+           ((last_day + 1)::timestamp AT TIME ZONE $4) AS t1
+      FROM unnest($1::int[], $2::date[], $3::date[]) AS u (vessel_id, first_day, last_day))`;
 
+/** The rows of each range, each with the fleet day it belongs to. */
 const dayJoin = (table: string, extra = '') => `
     FROM d
-    JOIN LATERAL (SELECT x.*${extra} FROM ${table} x
+    JOIN LATERAL (SELECT x.*, (x.t AT TIME ZONE $4)::date AS day${extra} FROM ${table} x
                    WHERE x.vessel_id = d.vessel_id AND x.t >= d.t0 AND x.t < d.t1) s ON true`;
 
 /** Station: dp_hours over every interval; the rest over DP intervals (mode auto_position). */
 export const STATION_SQL = `${BATCH}
-  SELECT d.vessel_id, d.day::text AS day,
+  SELECT d.vessel_id, s.day::text AS day,
          count(*)::int AS station_records,
          count(*) FILTER (WHERE s.dp)::int AS dp_intervals,
          sum(s.dp_s::float8) / 3600 AS dp_hours,
@@ -52,11 +58,11 @@ export const STATION_SQL = `${BATCH}
          sum(s.dt::float8) FILTER (WHERE s.dp AND s.current_ms IS NOT NULL) AS current_dt,
          max(s.wind_gust_ms::float8) FILTER (WHERE s.dp) AS gust_max
   ${dayJoin('ts_station', ", x.mode = 'auto_position' AS dp")}
-   GROUP BY d.vessel_id, d.day`;
+   GROUP BY d.vessel_id, s.day`;
 
 /** Thrusters, per unit: running, starts, travel, load-band seconds and the efficiency sums. */
 export const THRUSTER_SQL = `${BATCH}
-  SELECT d.vessel_id, d.day::text AS day, s.unit_id,
+  SELECT d.vessel_id, s.day::text AS day, s.unit_id,
          sum(s.run_s::float8) / 3600 AS run_hours,
          sum(s.starts)::int AS starts,
          sum(s.azimuth_travel_deg::float8) AS azimuth_travel_deg,
@@ -67,21 +73,21 @@ export const THRUSTER_SQL = `${BATCH}
          sum(s.power_kw::float8 ^ (2.0 / 3) * s.run_s::float8) FILTER (WHERE s.eff) AS eff_den,
          count(*) FILTER (WHERE s.eff)::int AS eff_n
   ${dayJoin('ts_thruster', ', (x.run_s > 0 AND x.power_kw > 0 AND x.thrust_kn IS NOT NULL) AS eff')}
-   GROUP BY d.vessel_id, d.day, s.unit_id`;
+   GROUP BY d.vessel_id, s.day, s.unit_id`;
 
 /** Power, per bus: every interval, whatever the DP mode. */
 export const BUS_SQL = `${BATCH}
-  SELECT d.vessel_id, d.day::text AS day, s.unit_id,
+  SELECT d.vessel_id, s.day::text AS day, s.unit_id,
          sum(s.limit_events)::int AS limit_events,
          sum(s.limit_s::float8) AS limit_seconds,
          count(*) FILTER (WHERE s.blackout)::int AS blackouts,
          max(s.kw_max::float8 / s.kw_available::float8) FILTER (WHERE s.kw_available > 0 AND s.kw_max IS NOT NULL) AS peak_load_ratio
   ${dayJoin('ts_power')}
-   GROUP BY d.vessel_id, d.day, s.unit_id`;
+   GROUP BY d.vessel_id, s.day, s.unit_id`;
 
 /** Reference systems, per system. */
 export const REF_SQL = `${BATCH}
-  SELECT d.vessel_id, d.day::text AS day, s.unit_id,
+  SELECT d.vessel_id, s.day::text AS day, s.unit_id,
          max(s.kind) AS kind,
          sum(s.online_s::float8) / 3600 AS online_hours,
          sum(s.online_s::float8 * s.weight::float8) FILTER (WHERE s.online_s IS NOT NULL AND s.weight IS NOT NULL) AS weight_sum,
@@ -89,7 +95,7 @@ export const REF_SQL = `${BATCH}
          percentile_cont(0.5) WITHIN GROUP (ORDER BY s.sd_m::float8) FILTER (WHERE s.online_s > 0 AND s.sd_m IS NOT NULL) AS sd_m_median,
          sum(s.rejected)::int AS rejections
   ${dayJoin('ts_ref')}
-   GROUP BY d.vessel_id, d.day, s.unit_id`;
+   GROUP BY d.vessel_id, s.day, s.unit_id`;
 
 /** What the figures need from the register: watch circles and life exponents. */
 export const REGISTER_SQL = `

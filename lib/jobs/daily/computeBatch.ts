@@ -11,6 +11,7 @@ import {
   type StationAggregate,
   type ThrusterAggregate,
 } from './aggregateSql';
+import { dayRanges } from './dayRanges';
 import { refDayRow, thrusterDayRow, vesselDayRow, type DailyVesselRow } from './figures';
 import { affectedRange, normalisedDays, type StoredDay } from './normalisation';
 import { deleteDays, insertDailyRows, updateP95Norm } from './writeRows';
@@ -54,7 +55,12 @@ export async function computeBatch(client: PoolClient, batch: readonly VesselDay
   const distinctVessels = [...new Set(vesselIds)].sort((a, b) => a - b);
   await client.query('SELECT pg_advisory_xact_lock($1, v) FROM unnest($2::int[]) AS v ORDER BY v', [DAILY_LOCK_NAMESPACE, distinctVessels]);
 
-  const params = [vesselIds, days, timeZone];
+  // Settings for these few large aggregates only: JIT compilation costs more
+  // than it saves on them, and the reference median sorts in memory.
+  await client.query(`SET LOCAL jit = off`);
+  await client.query(`SET LOCAL work_mem = '64MB'`);
+  const ranges = dayRanges(work);
+  const params = [ranges.map((r) => r.vesselId), ranges.map((r) => r.from), ranges.map((r) => r.to), timeZone];
   const station = await client.query<StationAggregate>(STATION_SQL, params);
   const thrusters = await client.query<ThrusterAggregate>(THRUSTER_SQL, params);
   const buses = await client.query<BusAggregate>(BUS_SQL, params);
