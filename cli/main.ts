@@ -15,6 +15,10 @@ Usage: holdfast <command> [options]     (or: npm run holdfast -- <command> …)
   jobs                    run the job scheduler (needs DATABASE_URL)
   jobs run --from DAY --to DAY
                           compute the daily figures of those days now, and wait
+  token create --name NAME --role ROLE [--campaign KEY]
+                          create a JSON API token (printed alone on the last line)
+  token list | token revoke ID
+                          list API tokens; revoke one (docs/api.md)
   help                    this text
 
 Settings come from the environment; see README.md.`;
@@ -28,6 +32,9 @@ async function main(argv: string[]): Promise<void> {
       help: { type: 'boolean', short: 'h' },
       from: { type: 'string' },
       to: { type: 'string' },
+      name: { type: 'string' },
+      role: { type: 'string' },
+      campaign: { type: 'string' },
     },
   });
   const [command, ...rest] = positionals;
@@ -55,6 +62,8 @@ async function main(argv: string[]): Promise<void> {
     case 'fleet':
       if (rest[0] === 'import' && rest[1]) return (await import('./commands/fleetImport')).fleetImportCommand(config, log, rest[1]);
       throw new UsageError('usage: holdfast fleet import FILE');
+    case 'token':
+      return (await import('./commands/token')).tokenCommand(config, log, rest, values);
     default:
       throw new UsageError(`unknown command "${command}"; try: holdfast help`);
   }

@@ -1,5 +1,6 @@
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createApiToken } from '../../lib/api/tokens';
 import { anyFreePort } from '../../lib/net/freePort';
 import { launchChromium, type TestBrowser } from '../helpers/browser';
 import { createMigratedDatabase, type TestDatabase } from '../helpers/db';
@@ -207,6 +208,26 @@ describe('Fleet page in a browser', () => {
     expect(await page.getByTestId('vessel-row').count()).toBe(0);
     expect(errors).toEqual([]);
     await page.close();
+  });
+
+  it('serves the JSON API over HTTP to a bearer token', async () => {
+    const api = `${server!.url}/api/v1`;
+    const { token } = await createApiToken(db!.pool, { name: 'e2e', role: 'admin' });
+    const unauthorised = await fetch(`${api}/vessels`);
+    expect(unauthorised.status).toBe(401);
+    expect(await unauthorised.json()).toMatchObject({ error: { code: 'unauthorized' } });
+
+    const response = await fetch(`${api}/vessels`, { headers: { authorization: `Bearer ${token}` } });
+    expect(response.status).toBe(200);
+    expect(response.headers.get('content-type')).toBe('application/json; charset=utf-8');
+    const { vessels } = (await response.json()) as { vessels: { key: string; last_seen: string | null }[] };
+    expect(vessels.map((v) => v.key)).toEqual(['ardle-shag', 'carrow-loon', 'kelvick-skua']);
+    expect(vessels.find((v) => v.key === 'ardle-shag')!.last_seen).toBe(ago(40 * MIN).toISOString());
+    expect(vessels.find((v) => v.key === 'carrow-loon')!.last_seen).toBeNull();
+
+    const csv = await fetch(`${api}/vessels?format=csv`, { headers: { authorization: `Bearer ${token}` } });
+    expect((await csv.text()).split('\r\n')[0]).toBe('key,name,type,dp_class,last_seen,open_flags');
+    expect((await fetch(`${api}/openapi.json`)).status).toBe(200);
   });
 
   it('explains the problem when the database is unreachable', async () => {

@@ -1,0 +1,24 @@
+import { notFound } from '../../../../../../lib/api/errors';
+import { flattenRecords } from '../../../../../../lib/api/flatten';
+import { parseFormat } from '../../../../../../lib/api/params';
+import { getThrusterService } from '../../../../../../lib/api/queries/thrusterService';
+import { renderList } from '../../../../../../lib/api/render';
+import { apiRoute } from '../../../../../../lib/api/route';
+import { columnsOf } from '../../../../../../lib/api/schemas';
+
+// Fleet data is read on every request, never prerendered at build time.
+export const dynamic = 'force-dynamic';
+
+export const GET = apiRoute<{ key: string }>(async ({ search, params, ctx }) => {
+  const format = parseFormat(search);
+  const service = await getThrusterService(ctx.db, params.key, ctx.today());
+  if (!service) throw notFound('vessel', params.key);
+  return renderList(
+    format,
+    () => service,
+    () => ({
+      table: flattenRecords(service.thrusters, columnsOf('ThrusterService')),
+      fileName: `${service.vessel}-thrusters-${service.as_of}`,
+    }),
+  );
+});
