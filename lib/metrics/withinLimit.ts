@@ -31,3 +31,6 @@ export function withinPct(h: ArrayLike<number>, limitM: number): number | null {
   if (k < OVERFLOW_BIN && k < h.length) below += (x - k) * h[k]!;
   return (100 * below) / n;
 }
+
+/** A limit in metres as a within_pct key (api-v1): as written in the register (3 → "3", 2.5 → "2.5"). */
+export const limitKey = (limitM: number): string => String(limitM);

@@ -1,7 +1,6 @@
 import { mergeHistograms, radialQuantile } from '../../metrics/radialHistogram';
-import { withinPct } from '../../metrics/withinLimit';
+import { limitKey, withinPct } from '../../metrics/withinLimit';
 import type { Queryable } from '../context';
-import { limitKey } from './vesselByKey';
 
 /**
  * GET /api/v1/campaigns/{key}/report: each vessel of the campaign over the

@@ -17,8 +17,6 @@ export async function vesselByKey(db: Queryable, key: string): Promise<VesselRef
   return row ? { id: row.id, key: row.key, watchCirclesM: row.watch_circles_m } : null;
 }
 
-/** A limit in metres as a within_pct key: as written in the register (3 → "3", 2.5 → "2.5"). */
-export const limitKey = (limitM: number) => String(limitM);
 
 /**
  * The rows of a per-vessel daily table for a range: `sql` takes $1 = vessel

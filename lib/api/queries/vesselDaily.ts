@@ -1,6 +1,7 @@
 import type { Queryable } from '../context';
 import type { DayRange } from '../params';
-import { limitKey, vesselRangeRows } from './vesselByKey';
+import { limitKey } from '../../metrics/withinLimit';
+import { vesselRangeRows } from './vesselByKey';
 
 /**
  * GET /api/v1/vessels/{key}/daily: the rows of daily_vessel for the range,

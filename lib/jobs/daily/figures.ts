@@ -2,7 +2,7 @@ import { limitEventsPerDpDay } from '../../metrics/powerLimit';
 import { emptyHistogram, histogramTotal, radialPercentiles } from '../../metrics/radialHistogram';
 import { maxOf, mergeRms } from '../../metrics/rms';
 import { DEFAULT_LIFE_EXPONENT, wearHoursOfBands } from '../../metrics/wear';
-import { withinPct } from '../../metrics/withinLimit';
+import { limitKey, withinPct } from '../../metrics/withinLimit';
 import type { BusAggregate, RefAggregate, StationAggregate, ThrusterAggregate } from './aggregateSql';
 import { addHistogramText } from './histogramText';
 
@@ -65,9 +65,6 @@ export interface DailyRefRow {
   sd_m_median: number | null;
   rejections: number | null;
 }
-
-/** A watch-circle limit as the API keys it: the number as written ("3", "2.5"). */
-export const limitKey = (limitM: number): string => String(limitM);
 
 /** Σ over parts that sent the field; null when none did (sums of metrics-v1 skip missing values). */
 function sumSent(values: readonly (number | null)[]): number | null {

@@ -2,7 +2,7 @@ import { notFound } from '../../../../../../lib/api/errors';
 import { flattenRecords } from '../../../../../../lib/api/flatten';
 import { parseFormat } from '../../../../../../lib/api/params';
 import { getCampaignReport } from '../../../../../../lib/api/queries/campaignReport';
-import { limitKey } from '../../../../../../lib/api/queries/vesselByKey';
+import { limitKey } from '../../../../../../lib/metrics/withinLimit';
 import { renderList } from '../../../../../../lib/api/render';
 import { apiRoute } from '../../../../../../lib/api/route';
 import { columnsOf } from '../../../../../../lib/api/schemas';
