@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { addDays } from '../time/fleetDay';
-import { projectService, trailingWearRate } from './serviceProjection';
+import { HORIZON_DAYS, projectService, trailingWearRate } from './serviceProjection';
 
 // Source: docs spec metrics-v1 "Thruster wear" (cumulative wear vs service
 // interval; trailing 30-day rate); the projection rule is the project's, in serviceProjection.ts.
@@ -36,5 +36,13 @@ describe('service projection', () => {
     const p = projectService({ cumulativeWearHours: 1010, serviceIntervalWearHours: 1000, daily: days(30, 0), asOf });
     expect(p.wear_hours_to_service).toBe(-10);
     expect(p.projected_service_day).toBe(asOf);
+  });
+
+  it('no date more than 100 years ahead (it would say nothing, and could not be written past year 9999)', () => {
+    const near = projectService({ cumulativeWearHours: 0, serviceIntervalWearHours: HORIZON_DAYS, daily: days(30, 1), asOf });
+    expect(near.projected_service_day).toBe(addDays(asOf, HORIZON_DAYS));
+    const far = projectService({ cumulativeWearHours: 0, serviceIntervalWearHours: 1000, daily: days(30, 1e-6), asOf });
+    expect(far.projected_service_day).toBeNull();
+    expect(far.rate_per_day).toBeCloseTo(1e-6, 12);
   });
 });

@@ -16,8 +16,12 @@ import { addDays } from '../time/fleetDay';
  * - Rate 0 or no day with data → no projection (null), never "infinitely far".
  * - Projected date: the day on which cumulative wear reaches the interval at
  *   that rate, asOf + ⌈to_service / rate⌉ days; asOf itself when already due.
+ * - A date more than HORIZON_DAYS ahead is null: at a near-zero rate it could
+ *   fall centuries ahead (past year 9999, which YYYY-MM-DD cannot write) and
+ *   says nothing a planner could use.
  */
 export const TRAILING_DAYS = 30;
+export const HORIZON_DAYS = 36_525; // 100 years
 
 export interface DailyWear {
   day: string; // YYYY-MM-DD
@@ -54,6 +58,6 @@ export function projectService(input: {
   const { rate, days } = trailingWearRate(input.daily, input.asOf);
   let projected: string | null = null;
   if (toService <= 0) projected = input.asOf;
-  else if (rate !== null && rate > 0) projected = addDays(input.asOf, Math.ceil(toService / rate));
+  else if (rate !== null && rate > 0 && toService / rate <= HORIZON_DAYS) projected = addDays(input.asOf, Math.ceil(toService / rate));
   return { wear_hours_to_service: toService, rate_per_day: rate, days_with_data: days, projected_service_day: projected };
 }

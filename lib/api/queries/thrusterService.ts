@@ -1,4 +1,4 @@
-import { projectService, trailingWearRate, TRAILING_DAYS } from '../../metrics/serviceProjection';
+import { projectService, TRAILING_DAYS } from '../../metrics/serviceProjection';
 import { addDays } from '../../time/fleetDay';
 import type { Queryable } from '../context';
 import { vesselByKey } from './vesselByKey';
@@ -14,11 +14,8 @@ import { vesselByKey } from './vesselByKey';
  * - wear_hours_to_service and projected_service_day come from
  *   lib/metrics/serviceProjection.ts: the trailing rate is the mean daily
  *   wear of the 30 days ending on asOf that have a figure.
- * - A projection more than HORIZON_DAYS ahead is null: at a near-zero rate
- *   the day could fall centuries ahead, past year 9999, which cannot be
- *   written YYYY-MM-DD, and says nothing a planner could use.
+ * - A projection more than 100 years ahead is null (HORIZON_DAYS there).
  */
-export const HORIZON_DAYS = 36_525; // 100 years
 export interface ThrusterServiceItem {
   id: string;
   kind: string;
@@ -70,15 +67,7 @@ export async function getThrusterService(
     thrusters: thrusters.map((t) => {
       const total = t.wear_h_at_install + t.wear_sum;
       const daily = recent.filter((d) => d.unit_id === t.unit_id);
-      const { rate } = trailingWearRate(daily, asOf);
-      const beyondHorizon = rate !== null && rate > 0 && (t.service_interval_h - total) / rate > HORIZON_DAYS;
-      // Without days, projectService finds no rate and projects nothing.
-      const projection = projectService({
-        cumulativeWearHours: total,
-        serviceIntervalWearHours: t.service_interval_h,
-        daily: beyondHorizon ? [] : daily,
-        asOf,
-      });
+      const projection = projectService({ cumulativeWearHours: total, serviceIntervalWearHours: t.service_interval_h, daily, asOf });
       return {
         id: t.unit_id,
         kind: t.kind,
