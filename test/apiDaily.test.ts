@@ -29,9 +29,9 @@ const FULL_DAY = {
   peak_load_ratio: 0.93,
 };
 
-/** A day with no DP intervals and nothing else sent: accuracy figures null, never 0. */
+/** A day with no station record (only other streams arrived): dp_hours and accuracy figures null, never 0. */
 const EMPTY_DAY = {
-  dp_hours: 0,
+  dp_hours: null, // no station record that day (power or thruster records only)
   p50_m: null,
   p95_m: null,
   p95_overflow: null,
@@ -112,7 +112,7 @@ describe('daily endpoints', () => {
       expect(rows).toEqual([
         ['2026-01-10', '23.5', '0.8', '1.95', 'false', '2.4', '0.9', '3.2', '99.5', '', '100',
           '0.4', '1.5', '8.25', '14', '0.6', '1.05', '3', '42.5', '3.0638297872340425', '0', '0.93'],
-        ['2026-01-11', '0', '', '', '', '', '', '', '', '', '', '', '', '', '', '', '', '', '', '', '', ''],
+        ['2026-01-11', '', '', '', '', '', '', '', '', '', '', '', '', '', '', '', '', '', '', '', '', ''],
         ['2026-01-12', '23.5', '0.8', '1.95', 'false', '2.4', '0.9', '3.2', '97', '99.25', '',
           '0.4', '1.5', '8.25', '14', '0.6', '1.05', '3', '42.5', '3.0638297872340425', '0', '0.93'],
       ]);

@@ -75,7 +75,7 @@ export const schemas = {
 
   VesselDay: record('One fleet day of a vessel (daily job output)', {
     day: day('Fleet day (FLEET_TIME_ZONE)'),
-    dp_hours: { type: 'number', minimum: 0, description: 'Σ dp_s / 3600 over all station intervals, hours' },
+    dp_hours: { type: ['number', 'null'], minimum: 0, description: 'Σ dp_s / 3600 over all station intervals, hours; null when no station record of the day arrived' },
     p50_m: nullableNumber('Median radial error of DP intervals, m (10 means ≥ 10 m)'),
     p95_m: nullableNumber('95th percentile radial error, m (10 means ≥ 10 m)'),
     p95_overflow: { type: ['boolean', 'null'], description: 'True when p95 fell in the overflow bin: show "≥ 10 m"' },

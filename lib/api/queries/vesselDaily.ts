@@ -1,3 +1,4 @@
+import type { DailyVesselRow } from '../../jobs/daily/figures';
 import type { Queryable } from '../context';
 import type { DayRange } from '../params';
 import { limitKey } from '../../metrics/withinLimit';
@@ -9,28 +10,9 @@ import { vesselRangeRows } from './vesselByKey';
  * never a row of zeros. within_pct is passed on as the job stored it, keyed by the
  * watch circles the vessel had then.
  */
-export interface VesselDayItem {
-  day: string;
-  dp_hours: number;
-  p50_m: number | null;
-  p95_m: number | null;
-  p95_overflow: boolean | null;
-  p99_m: number | null;
-  r_rms_m: number | null;
-  r_max_m: number | null;
-  within_pct: Record<string, number | null>;
-  hdg_rms_deg: number | null;
-  hdg_max_abs_deg: number | null;
-  wind_mean_ms: number | null;
-  gust_max_ms: number | null;
-  current_mean_ms: number | null;
+export type VesselDayItem = Omit<DailyVesselRow, 'vessel_id' | 'station_records' | 'dp_intervals' | 'samples' | 'err_hist'> & {
   p95_norm: number | null;
-  limit_events: number | null;
-  limit_seconds: number | null;
-  limit_events_per_dp_day: number | null;
-  blackouts: number | null;
-  peak_load_ratio: number | null;
-}
+};
 
 export interface VesselDaily {
   vessel: string;
