@@ -11,7 +11,8 @@ import type { PowerRecord, RefsRecord, StationRecord, ThrustersRecord } from '..
  * computes from these records with what the job computes from stored rows.
  */
 
-export interface RandomTelemetryOptions {
+/** A generated vessel's time span and unit ids (shared by the test generators). */
+export interface GeneratedSpan {
   seed: number;
   /** First interval start (UTC). */
   from: Date;
@@ -22,6 +23,9 @@ export interface RandomTelemetryOptions {
   thrusters: readonly string[];
   buses: readonly string[];
   refs: readonly string[];
+}
+
+export interface RandomTelemetryOptions extends GeneratedSpan {
   /** Probability that an optional field is left out. */
   gap?: number;
 }

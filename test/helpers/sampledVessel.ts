@@ -1,4 +1,5 @@
 import { Random } from '../../seed/random';
+import type { GeneratedSpan } from './randomTelemetry';
 import type { PowerRecord, RefsRecord, StationRecord, ThrustersRecord } from '../../lib/telemetry/schemas';
 
 /**
@@ -12,14 +13,7 @@ import type { PowerRecord, RefsRecord, StationRecord, ThrustersRecord } from '..
  * running state per thruster per interval, bands by instantaneous load.
  */
 
-export interface SampledVesselOptions {
-  seed: number;
-  from: Date;
-  intervals: number;
-  dt: number;
-  thrusters: readonly string[];
-  buses: readonly string[];
-  refs: readonly string[];
+export interface SampledVesselOptions extends GeneratedSpan {
   /** Position error standard deviation per axis, m (circular normal: Rayleigh radial error). */
   sigmaM: number;
 }
