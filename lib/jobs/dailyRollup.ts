@@ -1,4 +1,5 @@
-import type { Pool, PoolClient } from 'pg';
+import type { Pool } from 'pg';
+import { inTransaction } from '../db/transaction';
 import { computeBatch, type VesselDay } from './daily/computeBatch';
 
 /**
@@ -11,21 +12,6 @@ export type { VesselDay };
 
 /** Vessel-days per transaction: large enough to be quick, small enough to hold locks briefly. */
 export const BATCH_VESSEL_DAYS = 100;
-
-async function inTransaction<T>(pool: Pool, body: (client: PoolClient) => Promise<T>): Promise<T> {
-  const client = await pool.connect();
-  try {
-    await client.query('BEGIN');
-    const result = await body(client);
-    await client.query('COMMIT');
-    return result;
-  } catch (error) {
-    await client.query('ROLLBACK').catch(() => {});
-    throw error;
-  } finally {
-    client.release();
-  }
-}
 
 /** Batches computed at once by recomputeDays (each on its own connection). */
 export const DEFAULT_CONCURRENCY = 2;

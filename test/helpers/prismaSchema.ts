@@ -24,7 +24,8 @@ const SCALARS = new Set(['Int', 'BigInt', 'String', 'Float', 'Decimal', 'Boolean
 export function readPrismaModels(file: string): SchemaModel[] {
   const text = readFileSync(file, 'utf8').replace(/\/\/.*$/gm, '');
   const models: SchemaModel[] = [];
-  for (const match of text.matchAll(/model\s+(\w+)\s*\{([^}]*)\}/g)) {
+  // A model body ends at the first `}` outside a string (defaults such as @default("{}") hold braces).
+  for (const match of text.matchAll(/model\s+(\w+)\s*\{((?:"(?:[^"\\]|\\.)*"|[^}"])*)\}/g)) {
     const [, name, body] = match as unknown as [string, string, string];
     const table = /@@map\("([^"]+)"\)/.exec(body)?.[1] ?? name;
     const fields: SchemaField[] = [];
