@@ -3,12 +3,16 @@
  * contract's 1 MiB and 10,000-record limits.
  */
 export function chunkRecords(records: readonly unknown[], maxBytes = 900_000, maxRecords = 10_000): string[] {
+  return chunkRecordTexts(records.map((r) => JSON.stringify(r)), maxBytes, maxRecords);
+}
+
+/** The same for records already serialised (each a JSON object's text). */
+export function chunkRecordTexts(texts: readonly string[], maxBytes = 900_000, maxRecords = 10_000): string[] {
   const payloads: string[] = [];
   let parts: string[] = [];
   let size = 0;
   const overhead = '{"records":[]}'.length;
-  for (const record of records) {
-    const text = JSON.stringify(record);
+  for (const text of texts) {
     if (parts.length > 0 && (size + text.length + 1 + overhead > maxBytes || parts.length >= maxRecords)) {
       payloads.push(`{"records":[${parts.join(',')}]}`);
       parts = [];

@@ -14,14 +14,15 @@ export interface PositionErrorStats {
   hist: number[];
 }
 
-export function positionErrorStats(north: readonly number[], east: readonly number[]): PositionErrorStats {
+export function positionErrorStats(north: ArrayLike<number>, east: ArrayLike<number>): PositionErrorStats {
   const n = north.length;
   const hist = new Array<number>(HIST_BINS).fill(0);
   let sn = 0, se = 0, sr = 0, sr2 = 0, rmax = 0;
   for (let i = 0; i < n; i++) {
-    const r = Math.hypot(north[i]!, east[i]!);
-    sn += north[i]!;
-    se += east[i]!;
+    const x = north[i]!, y = east[i]!;
+    const r = Math.sqrt(x * x + y * y);
+    sn += x;
+    se += y;
     sr += r;
     sr2 += r * r;
     if (r > rmax) rmax = r;
@@ -40,17 +41,21 @@ export function positionErrorStats(north: readonly number[], east: readonly numb
   };
 }
 
-export function headingErrorStats(errors: readonly number[]): { mean: number; rms: number; max_abs: number } {
+export function headingErrorStats(errors: ArrayLike<number>): { mean: number; rms: number; max_abs: number } {
   let s = 0, s2 = 0, m = 0;
-  for (const e of errors) {
+  for (let i = 0; i < errors.length; i++) {
+    const e = errors[i]!;
     s += e;
     s2 += e * e;
-    m = Math.max(m, Math.abs(e));
+    const a = e < 0 ? -e : e;
+    if (a > m) m = a;
   }
   return { mean: round(s / errors.length, 3), rms: round(Math.sqrt(s2 / errors.length), 3), max_abs: round(m, 3) };
 }
 
+const POW10 = [1, 10, 100, 1000, 1e4, 1e5, 1e6, 1e7];
+
 export function round(x: number, digits: number): number {
-  const f = 10 ** digits;
+  const f = POW10[digits] ?? 10 ** digits;
   return Math.round(x * f) / f;
 }

@@ -1,4 +1,5 @@
 import { spawn, type ChildProcessWithoutNullStreams } from 'node:child_process';
+import { existsSync, readFileSync, rmSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { createTestDatabase, type TestDatabase } from './helpers/db';
 import { uniqueSuffix } from './helpers/fleet';
@@ -37,6 +38,7 @@ describe('holdfast start (without the web app)', () => {
   afterAll(async () => {
     if (child && child.exitCode === null) child.kill('SIGKILL');
     await db?.drop();
+    rmSync(`/tmp/holdfast-start-${suffix}`, { recursive: true, force: true });
   });
 
   it('uses the given database and broker and starts no embedded service', () => {
@@ -46,10 +48,30 @@ describe('holdfast start (without the web app)', () => {
 
   it('stores demo telemetry that arrives over MQTT, and keeps storing it', async () => {
     const count = async () => (await db.pool.query('SELECT count(*)::int AS n FROM ts_station')).rows[0].n as number;
-    await waitFor(async () => (await count()) > 12 * 1440, 60_000, 'the demo history');
+    await waitFor(async () => (await count()) > 12 * 1440, 90_000, 'the demo history');
     const first = await count();
     await waitFor(async () => (await count()) >= first + 24, 20_000, 'live records');
-  });
+  }, 120_000);
+
+  it('backfills the demo history in the background from the simulator, with its ground truth, nothing quarantined', async () => {
+    expect(output).toContain('demo history: backfilling 1 day(s) in the background');
+    await waitFor(() => output.includes('demo history published'), 90_000, 'the end of the backfill');
+    const truthFile = `/tmp/holdfast-start-${suffix}/demo-ground-truth.json`;
+    expect(existsSync(truthFile)).toBe(true);
+    const truth = JSON.parse(readFileSync(truthFile, 'utf8')) as { seed: number; history: { days: number }; entries: { scenario: string }[] };
+    expect(truth).toMatchObject({ seed: 1, history: { days: 1 } });
+    expect(new Set(truth.entries.map((e) => e.scenario)).size).toBe(6);
+    // The history holds every interval of yesterday for every vessel, in more than one DP mode.
+    const yesterday = new Date(Date.now() - 86_400_000).toISOString().slice(0, 10);
+    const { rows } = await db.pool.query<{ n: number; modes: string[] }>(
+      `SELECT count(*)::int AS n, array_agg(DISTINCT mode) AS modes FROM ts_station WHERE t >= $1::date AND t < $1::date + 1`,
+      [yesterday],
+    );
+    expect(rows[0]!.n).toBe(12 * 1440);
+    expect(rows[0]!.modes).toContain('auto_position');
+    expect(rows[0]!.modes.length).toBeGreaterThan(1);
+    expect((await db.pool.query('SELECT count(*)::int AS n FROM quarantine')).rows[0].n).toBe(0);
+  }, 100_000);
 
   it('serves ingest metrics and health on the status server it logged', async () => {
     const url = /ingest metrics: (http:\/\/localhost:\d+)\/metrics/.exec(output)?.[1];

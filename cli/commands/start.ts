@@ -1,4 +1,5 @@
 import { readFileSync } from 'node:fs';
+import path from 'node:path';
 import type { ChildProcess } from 'node:child_process';
 import exitHook from 'async-exit-hook';
 import { startEmbeddedBroker } from '../../lib/broker/embedded';
@@ -8,7 +9,6 @@ import type { Logger } from '../../lib/log/logger';
 import { readFleetFile } from '../../lib/register/fleetFile';
 import { importFleet } from '../../lib/register/importFleet';
 import { createPrisma } from '../../lib/db/prisma';
-import { DemoPublisher } from '../../seed/publisher';
 import { preferredOrFreePort } from '../../lib/net/freePort';
 import { ingestWorkerFor, openStore, removeRuntimeFile, statusServerFor, writeRuntimeFile } from '../runtime';
 import { buildWeb, isBuildFresh, startWeb, stopChild, waitForHttp } from '../webServer';
@@ -23,8 +23,10 @@ export interface StartOptions {
  * `holdfast start` (what `npm start` runs): the whole platform in one
  * supervisor. Embedded PostgreSQL when DATABASE_URL is unset, embedded MQTT
  * broker when MQTT_URL is unset; then migrations, the demo fleet on an empty
- * store, the ingest worker, the job runner, the demo publisher and the web
- * app. Ctrl-C (or SIGTERM) stops everything, the embedded database included.
+ * store, the ingest worker, the job runner, the web app and the demo (live
+ * simulated telemetry at once; into a store without telemetry, the history
+ * backfilled in the background — seed/README.md). Ctrl-C (or SIGTERM) stops
+ * everything, the embedded database included.
  */
 export async function startCommand(config: Config, log: Logger, options: StartOptions): Promise<void> {
   const stops: { name: string; stop: () => Promise<void> }[] = [];
@@ -110,24 +112,35 @@ export async function startCommand(config: Config, log: Logger, options: StartOp
 
   if (config.HOLDFAST_DEMO) {
     const fleet = readFleetFile(readFileSync(DEMO_FLEET_FILE, 'utf8'), DEMO_FLEET_FILE);
-    const publisher = new DemoPublisher({
-      url: mqttUrl,
-      username: config.MQTT_USERNAME,
-      password: config.MQTT_PASSWORD,
-      topicRoot: config.MQTT_TOPIC_ROOT,
+    // Backfill only into a store without telemetry whose register holds the whole demo fleet.
+    const { rows } = await store.pool.query<{ telemetry: boolean; registered: number }>(
+      'SELECT EXISTS (SELECT 1 FROM ts_station) AS telemetry, (SELECT count(*)::int FROM vessel WHERE key = ANY($1)) AS registered',
+      [fleet.vessels.map((v) => v.key)],
+    );
+    const backfill = !rows[0]!.telemetry && rows[0]!.registered === fleet.vessels.length && config.HOLDFAST_DEMO_HISTORY_DAYS > 0;
+    const { MqttSink } = await import('../../seed/demo/sinks');
+    const { startSupervisedDemo } = await import('../../seed/demo/supervisedDemo');
+    const sink = await MqttSink.connect({ url: mqttUrl, username: config.MQTT_USERNAME, password: config.MQTT_PASSWORD });
+    const demo = startSupervisedDemo({
       fleet,
+      seed: config.HOLDFAST_DEMO_SEED,
+      days: config.HOLDFAST_DEMO_HISTORY_DAYS,
+      backfill,
       intervalS: config.HOLDFAST_DEMO_INTERVAL_S,
+      topicRoot: config.MQTT_TOPIC_ROOT,
+      sink,
+      truthFile: path.join(config.HOLDFAST_DATA_DIR, 'demo-ground-truth.json'),
+      committed: () => worker.handler.counters.messages,
       log: log.child('demo'),
     });
-    await publisher.connect();
-    stops.push({ name: 'demo publisher', stop: () => publisher.stop() });
-    publisher.startLive();
-    if (isEmpty && config.HOLDFAST_DEMO_HISTORY_DAYS > 0) {
-      void publisher
-        .publishHistory(config.HOLDFAST_DEMO_HISTORY_DAYS, Date.now() - config.HOLDFAST_DEMO_INTERVAL_S * 1000)
-        .then((n) => log.info(`demo history published: ${n} records over ${config.HOLDFAST_DEMO_HISTORY_DAYS} day(s)`))
-        .catch((e) => log.warn(`demo history: ${(e as Error).message}`));
-    }
+    stops.push({
+      name: 'demo publisher',
+      stop: async () => {
+        await demo.stop();
+        await sink.close();
+      },
+    });
+    if (backfill) log.info(`demo history: backfilling ${config.HOLDFAST_DEMO_HISTORY_DAYS} day(s) in the background`);
   }
 
   log.info(options.web ? `Holdfast is running: ${webUrl}  (Ctrl-C stops everything)` : 'Holdfast is running without the web app (Ctrl-C stops everything)');

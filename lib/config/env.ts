@@ -96,12 +96,21 @@ export const envSchema = z.object({
     .min(1, 'must be a whole number of seconds from 1 to 3600')
     .max(3600, 'must be a whole number of seconds from 1 to 3600')
     .default(10),
+  // Days of simulated history backfilled into a store without telemetry (0: none), and where the
+  // demo's seeded faults are placed (seed/README.md).
   HOLDFAST_DEMO_HISTORY_DAYS: z.coerce
     .number({ error: 'must be a whole number of days from 0 to 365' })
     .int('must be a whole number of days from 0 to 365')
     .min(0, 'must be a whole number of days from 0 to 365')
     .max(365, 'must be a whole number of days from 0 to 365')
-    .default(2),
+    .default(60),
+  // Seed of the demo simulator and its scenario plan: the same seed gives the same data.
+  HOLDFAST_DEMO_SEED: z.coerce
+    .number({ error: 'must be a whole number from 0 to 4294967295' })
+    .int('must be a whole number from 0 to 4294967295')
+    .min(0, 'must be a whole number from 0 to 4294967295')
+    .max(4_294_967_295, 'must be a whole number from 0 to 4294967295')
+    .default(1),
   LOG_LEVEL: z
     .enum(['debug', 'info', 'warn', 'error'], { error: 'must be debug, info, warn or error' })
     .default('info'),

@@ -20,6 +20,12 @@ describe('loadConfig', () => {
     expect(c.MQTT_SHARED_GROUP).toBeUndefined();
   });
 
+  it('reads the demo settings: 60 days of history and seed 1 by default', () => {
+    expect(loadConfig({})).toMatchObject({ HOLDFAST_DEMO_HISTORY_DAYS: 60, HOLDFAST_DEMO_SEED: 1, HOLDFAST_DEMO_INTERVAL_S: 10 });
+    expect(loadConfig({ HOLDFAST_DEMO_HISTORY_DAYS: '3', HOLDFAST_DEMO_SEED: '42' })).toMatchObject({ HOLDFAST_DEMO_HISTORY_DAYS: 3, HOLDFAST_DEMO_SEED: 42 });
+    expect(() => loadConfig({ HOLDFAST_DEMO_SEED: '-1' })).toThrow('Setting HOLDFAST_DEMO_SEED: must be a whole number from 0 to 4294967295 (got "-1")');
+  });
+
   it('reads the observability and shared-subscription settings', () => {
     const c = loadConfig({ HOLDFAST_METRICS_PORT: '0', LOG_FORMAT: 'json', MQTT_SHARED_GROUP: 'ingest-north' });
     expect(c.HOLDFAST_METRICS_PORT).toBe(0); // 0 turns the status server off

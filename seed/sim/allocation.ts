@@ -9,6 +9,12 @@ import type { ThrusterSpec } from './thrusters';
  * the load. Saturation: the whole demand is scaled down until the most loaded
  * unit is at its limit (keeps the force direction; a simple choice, common
  * practice, no source — Sørensen 2011 §4.5 lists better ones).
+ *
+ * Thruster bias (common DP practice, no source): on vessels whose azimuths
+ * sit symmetrically about midships, each azimuth may add a thrust pointing
+ * away from midships, the same fraction of its rating for all, so the bias
+ * cancels in surge, sway and yaw while keeping the units loaded and ready to
+ * respond. It fades out as the largest unit demand grows to half its rating.
  */
 export class Allocator {
   /** Virtual-thruster pseudo-inverse rows (m × 3, row-major). */
@@ -18,6 +24,11 @@ export class Allocator {
   private readonly u: Float64Array;
   readonly cmdThrust: Float64Array;
   readonly cmdAngle: Float64Array;
+  /** Unit vector from midships to each azimuth (zero for other units, or when the bias would not cancel). */
+  private readonly radial: Float64Array;
+  /** Bias thrust as a fraction of each azimuth's rating (0: none). Only takes effect when `canBias`. */
+  bias = 0;
+  readonly canBias: boolean;
 
   constructor(private readonly specs: readonly ThrusterSpec[]) {
     const cols: { unit: number; fx: number; fy: number; mz: number; w: number }[] = [];
@@ -53,6 +64,21 @@ export class Allocator {
     this.u = new Float64Array(m);
     this.cmdThrust = new Float64Array(specs.length);
     this.cmdAngle = new Float64Array(specs.length);
+    this.radial = new Float64Array(2 * specs.length);
+    let sx = 0, sy = 0, sum = 0, count = 0;
+    specs.forEach((s, i) => {
+      const r = Math.sqrt(s.x * s.x + s.y * s.y);
+      if (!s.azimuthing || r === 0) return;
+      this.radial[2 * i] = s.x / r;
+      this.radial[2 * i + 1] = s.y / r;
+      sx += s.maxThrust * this.radial[2 * i]!;
+      sy += s.maxThrust * this.radial[2 * i + 1]!;
+      sum += s.maxThrust;
+      count++;
+    });
+    // Radial vectors pass through midships (no yaw moment); they must also add up to no force.
+    this.canBias = count >= 4 && Math.sqrt(sx * sx + sy * sy) < 1e-6 * sum;
+    if (!this.canBias) this.radial.fill(0);
   }
 
   /**
@@ -81,13 +107,24 @@ export class Allocator {
   allocate(x: number, y: number, n: number, angleNow: Float64Array): number {
     const p = this.pinv, u = this.u;
     for (let j = 0; j < u.length; j++) u[j] = p[j * 3]! * x + p[j * 3 + 1]! * y + p[j * 3 + 2]! * n;
+    let fade = 0;
+    if (this.bias > 0 && this.canBias) {
+      let most = 0;
+      for (let i = 0; i < this.specs.length; i++) {
+        const s = this.specs[i]!, j = this.col[i]!;
+        if (!s.azimuthing) continue;
+        const r = Math.sqrt(u[j]! * u[j]! + u[j + 1]! * u[j + 1]!) / s.maxThrust;
+        if (r > most) most = r;
+      }
+      fade = most < 0.5 ? this.bias * (1 - 2 * most) : 0;
+    }
     let worst = 1;
     for (let i = 0; i < this.specs.length; i++) {
       const s = this.specs[i]!;
       const j = this.col[i]!;
       let t: number;
       if (s.azimuthing) {
-        const ux = u[j]!, uy = u[j + 1]!;
+        const ux = u[j]! + fade * s.maxThrust * this.radial[2 * i]!, uy = u[j + 1]! + fade * s.maxThrust * this.radial[2 * i + 1]!;
         t = Math.sqrt(ux * ux + uy * uy);
         this.cmdAngle[i] = t > 0.01 * s.maxThrust ? Math.atan2(uy, ux) : angleNow[i]!;
       } else {

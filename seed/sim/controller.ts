@@ -33,15 +33,18 @@ export function gainsFor(mass: number, damping: number, periodS: number, zeta = 
 
 export class Pid {
   integral = 0;
+  /** Multiplies all three gains (1 = as tuned; a detuned controller or an operator's joystick is softer). */
+  scale = 1;
   constructor(readonly g: AxisGains) {}
 
   /** Demand (N) for error e (m) and rate (m/s), over a step of h s. */
   demand(e: number, rate: number, h: number): number {
-    let i = this.integral + this.g.ki * e * h;
+    const k = this.scale;
+    let i = this.integral + k * this.g.ki * e * h;
     if (i > this.g.iMax) i = this.g.iMax;
     else if (i < -this.g.iMax) i = -this.g.iMax;
     this.integral = i;
-    return -(this.g.kp * e + this.g.kd * rate + i);
+    return -(k * (this.g.kp * e + this.g.kd * rate) + i);
   }
 
   /** The position gain in tonnes per metre. */
@@ -74,9 +77,22 @@ export class DpController {
     this.limit = Float64Array.from(capacity);
   }
 
+  /** Gain multipliers: surge and sway, and yaw. */
+  setGainScale(position: number, yaw: number): void {
+    this.surge.scale = position;
+    this.sway.scale = position;
+    this.yaw.scale = yaw;
+  }
+
+  /** Forget the integral action (a new approach to the set point). */
+  reset(): void {
+    this.surge.integral = this.sway.integral = this.yaw.integral = 0;
+  }
+
   /**
    * eN, eE: estimated position minus set point (m, earth); eYaw (rad);
-   * u, v, r: estimated body velocities; ff: wind feed-forward (body, added).
+   * u, v, r: estimated body velocities relative to the set point's motion;
+   * ff: wind feed-forward (body, added).
    */
   step(eN: number, eE: number, eYaw: number, psi: number, u: number, v: number, r: number, ffX: number, ffY: number, ffN: number, h: number): Float64Array {
     const c = Math.cos(psi), s = Math.sin(psi);

@@ -68,6 +68,15 @@ export class Environment {
   private readonly drift = new GaussMarkov(100, 0.3);
   private readonly phase: number;
   readonly sample: EnvSample = { windSpeed: 0, windFrom: 0, curN: 0, curE: 0, hs: 0, driftFactor: 1 };
+  /** Multiplies the mean wind (and so the sea state): the weather-only scenario raises it. */
+  windScale = 1;
+  /** A steady current (m/s north, east) instead of the varying one (tests). */
+  steadyCurrent?: { north: number; east: number };
+  /** Mean wind before windScale, m/s, and whether the slow part has been computed yet. */
+  private mean = 0;
+  private slowReady = false;
+  private readonly fromCos: number;
+  private readonly fromSin: number;
 
   /**
    * @param meanFrom prevailing wind direction, rad (the demo heads vessels into it)
@@ -80,44 +89,58 @@ export class Environment {
     private readonly fixedCurrent = false,
   ) {
     this.phase = rng.next() * 2 * Math.PI;
+    this.fromCos = Math.cos(meanFrom);
+    this.fromSin = Math.sin(meanFrom);
   }
 
   /** Advance one second to time tS (seconds since the epoch). */
   step(tS: number): EnvSample {
     const s = this.sample;
-    const days = tS / 86_400;
-    const slow = tS % SLOW_S === 0;
-    if (slow) {
-      this.windWander.step(this.rng);
-      this.dirWander.step(this.rng);
-      this.curWander.step(this.rng);
-      this.curDir.step(this.rng);
+    // What varies over hours (mean wind, current, tide) is updated every SLOW_S seconds: the same
+    // statistics for a fraction of the sines.
+    if (tS % SLOW_S === 0 || !this.slowReady) {
+      if (tS % SLOW_S === 0) {
+        this.windWander.step(this.rng);
+        this.dirWander.step(this.rng);
+        this.curWander.step(this.rng);
+        this.curDir.step(this.rng);
+      }
+      this.slowStep(tS);
     }
-    let mean: number;
-    if (this.fixedWind !== undefined) {
-      mean = this.fixedWind;
-      s.windFrom = this.meanFrom;
-    } else {
-      mean = 8 + 5 * Math.sin(2 * Math.PI * (days / 3.1) + this.phase) + 2 * Math.sin(2 * Math.PI * days + 2 * this.phase) + this.windWander.x;
-      if (mean < 0.5) mean = 0.5;
-      s.windFrom = this.meanFrom + this.dirWander.x;
-    }
+    const mean = this.mean * this.windScale;
     const w = mean * (1 + TURBULENCE * this.gust.step(this.rng));
     s.windSpeed = w > 0 ? w : 0;
     const hs = (0.21 * mean * mean) / G;
     s.hs = hs > 6 ? 6 : hs;
     s.driftFactor = 1 + this.drift.step(this.rng);
-    if (this.fixedCurrent) {
+    return s;
+  }
+
+  private slowStep(tS: number): void {
+    const s = this.sample;
+    this.slowReady = true;
+    if (this.fixedWind !== undefined) {
+      this.mean = this.fixedWind;
+      s.windFrom = this.meanFrom;
+    } else {
+      const days = tS / 86_400;
+      const mean = 8 + 5 * Math.sin(2 * Math.PI * (days / 3.1) + this.phase) + 2 * Math.sin(2 * Math.PI * days + 2 * this.phase) + this.windWander.x;
+      this.mean = mean < 0.5 ? 0.5 : mean;
+      s.windFrom = this.meanFrom + this.dirWander.x;
+    }
+    if (this.steadyCurrent) {
+      s.curN = this.steadyCurrent.north;
+      s.curE = this.steadyCurrent.east;
+    } else if (this.fixedCurrent) {
       s.curN = 0;
       s.curE = 0;
     } else {
       const tide = 0.25 * Math.sin((2 * Math.PI * tS) / (12.42 * 3600) + this.phase);
       const speed = Math.abs(0.2 + this.curWander.x);
       const set = this.meanFrom + (3 * Math.PI) / 4 + this.curDir.x;
-      s.curN = speed * Math.cos(set) + tide * Math.cos(this.meanFrom);
-      s.curE = speed * Math.sin(set) + tide * Math.sin(this.meanFrom);
+      s.curN = speed * Math.cos(set) + tide * this.fromCos;
+      s.curE = speed * Math.sin(set) + tide * this.fromSin;
     }
-    return s;
   }
 }
 
@@ -128,18 +151,35 @@ export class Environment {
  */
 export function windForce(mdl: VesselModel, psi: number, speed: number, from: number, out: Float64Array, scale = 1): void {
   const gamma = from - psi; // 0 = wind on the bow
+  windForceAt(mdl, Math.cos(gamma), Math.sin(gamma), speed, out, scale);
+}
+
+/** windForce with the cosine and sine of the wind's angle off the bow given. */
+function windForceAt(mdl: VesselModel, cg: number, sg: number, speed: number, out: Float64Array, scale: number): void {
   const q = 0.5 * RHO_AIR * speed * speed * scale;
-  out[0] = -CX * Math.cos(gamma) * q * mdl.p.windFrontal;
-  out[1] = -CY * Math.sin(gamma) * q * mdl.p.windLateral;
-  out[2] = -CN * Math.sin(2 * gamma) * q * mdl.p.windLateral * mdl.p.length;
+  out[0] = -CX * cg * q * mdl.p.windFrontal;
+  out[1] = -CY * sg * q * mdl.p.windLateral;
+  out[2] = -CN * 2 * sg * cg * q * mdl.p.windLateral * mdl.p.length; // sin 2γ = 2 sin γ cos γ
 }
 
 /** Wave drift force in the body frame for waves from `from` (rad). Adds into out. */
 export function waveDriftForce(mdl: VesselModel, psi: number, hs: number, from: number, factor: number, out: Float64Array): void {
   const gamma = from - psi;
+  waveDriftAt(mdl, Math.cos(gamma), Math.sin(gamma), hs, factor, out);
+}
+
+function waveDriftAt(mdl: VesselModel, cg: number, sg: number, hs: number, factor: number, out: Float64Array): void {
   // ζ ≈ H_s/4 (the standard deviation of the surface elevation).
   const perLength = 0.5 * RHO_WATER * G * (hs / 4) * (hs / 4) * REFLECTION * factor;
-  out[0] = out[0]! - Math.cos(gamma) * perLength * mdl.p.beam;
-  out[1] = out[1]! - Math.sin(gamma) * perLength * mdl.p.length;
-  out[2] = out[2]! - 0.05 * Math.sin(2 * gamma) * perLength * mdl.p.length * mdl.p.length;
+  out[0] = out[0]! - cg * perLength * mdl.p.beam;
+  out[1] = out[1]! - sg * perLength * mdl.p.length;
+  out[2] = out[2]! - 0.05 * 2 * sg * cg * perLength * mdl.p.length * mdl.p.length;
+}
+
+/** Wind and wave drift together (waves come from the wind's direction): one cosine and sine for both. */
+export function environmentForce(mdl: VesselModel, psi: number, env: EnvSample, out: Float64Array): void {
+  const gamma = env.windFrom - psi;
+  const cg = Math.cos(gamma), sg = Math.sin(gamma);
+  windForceAt(mdl, cg, sg, env.windSpeed, out, 1);
+  waveDriftAt(mdl, cg, sg, env.hs, env.driftFactor, out);
 }

@@ -14,7 +14,8 @@ import type { VesselState } from './vesselModel';
 export interface ThrusterSums {
   run: Float64Array;
   rpm: Float64Array;
-  loadSum: Float64Array;
+  /** Σ pitch % (controllable-pitch units; their speed is constant). */
+  pitch: Float64Array;
   loadMax: Float64Array;
   thrust: Float64Array;
   power: Float64Array;
@@ -32,28 +33,30 @@ export interface BusSums {
   events: Int32Array;
 }
 
-export function reduceThrusters(specs: readonly ThrusterSpec[], u: ThrusterSums): ThrustersRecord['units'] {
-  return specs.map((sp, k) => {
+export function reduceThrusters(specs: readonly ThrusterSpec[], u: ThrusterSums, starts: Int32Array): ThrustersRecord['units'] {
+  const units: ThrustersRecord['units'] = [];
+  for (let k = 0; k < specs.length; k++) {
+    const sp = specs[k]!;
     const run = u.run[k]!;
-    if (run === 0) return { id: sp.id, run_s: 0, starts: 0 };
-    return {
-      id: sp.id,
-      run_s: run,
-      starts: 0,
-      rpm: round(u.rpm[k]! / run, 1),
-      load_pct_mean: round(u.loadSum[k]! / run, 2),
-      load_pct_max: round(u.loadMax[k]!, 2),
-      thrust_kn: round(u.thrust[k]! / run / 1000, 2),
-      power_kw: round(u.power[k]! / run / 1000, 1),
-      ...(sp.azimuthing
-        ? {
-            azimuth_deg: round(deg360(Math.atan2(u.sin[k]!, u.cos[k]!)), 1) % 360,
-            azimuth_travel_deg: round(u.travel[k]! / DEG, 1),
-          }
-        : {}),
-      load_band_s: Array.from(u.bands.subarray(k * 11, k * 11 + 11)),
-    };
-  });
+    if (run === 0) {
+      units.push({ id: sp.id, run_s: 0, starts: starts[k]! });
+      continue;
+    }
+    // Built field by field in the record's order (no spread objects: this runs 1,440 times a vessel-day).
+    const unit: ThrustersRecord['units'][number] = { id: sp.id, run_s: run, starts: starts[k]!, rpm: round(sp.cpp ? sp.maxRpm : u.rpm[k]! / run, 1) };
+    if (sp.cpp) unit.pitch_pct = round(u.pitch[k]! / run, 1);
+    unit.load_pct_mean = round((100 * u.power[k]!) / run / sp.ratedW, 2);
+    unit.load_pct_max = round(u.loadMax[k]!, 2);
+    unit.thrust_kn = round(u.thrust[k]! / run / 1000, 2);
+    unit.power_kw = round(u.power[k]! / run / 1000, 1);
+    if (sp.azimuthing) {
+      unit.azimuth_deg = round(deg360(Math.atan2(u.sin[k]!, u.cos[k]!)), 1) % 360;
+      unit.azimuth_travel_deg = round(u.travel[k]! / DEG, 1);
+    }
+    unit.load_band_s = Array.from(u.bands.subarray(k * 11, k * 11 + 11));
+    units.push(unit);
+  }
+  return units;
 }
 
 export function reduceBuses(ids: readonly string[], b: BusSums, gensOnline: Int32Array, dt: number): PowerRecord['buses'] {

@@ -1,14 +1,19 @@
+import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
+import { readFleetFile } from '../../lib/register/fleetFile';
 import { positionErrorStats } from '../intervalStatistics';
+import { demoSite } from '../sites';
 import { Allocator, thrustForce } from './allocation';
-import { KN_PER_TONNE, RHO_WATER } from './constants';
+import { DEG, KN_PER_TONNE, RHO_WATER } from './constants';
 import { Pid, proportionalDemandT } from './controller';
+import { waveDriftForce, windForce } from './environment';
 import { AxisFilter, correct } from './estimator';
 import { SimRandom } from './fastNormal';
 import { powerLimitScale } from './power';
 import { inverseVarianceWeights } from './references';
-import { idealThrust, THRUST_EFFICIENCY, ThrusterBank, thrusterLayout } from './thrusters';
+import { CPP_IDLE, FPP_IDLE, idealThrust, THRUST_EFFICIENCY, ThrusterBank, thrusterLayout } from './thrusters';
 import { vesselModel } from './vesselModel';
+import { VesselSimulator } from './vesselSimulator';
 import type { FleetVessel } from '../../lib/register/fleetFile';
 
 /** p-quantile of the radial error from a 0.1 m histogram, interpolating within the bin. */
@@ -75,19 +80,36 @@ describe('ideal momentum theory and propeller laws', () => {
   });
 
   it('thrusters: rated thrust is the derated ideal thrust, T ∝ n², P ∝ n³ (affinity laws), consistent at part load', () => {
-    const vessel = { thrusters: [{ id: 'T1', kind: 'tunnel', rated_kw: 1800, diameter_m: 2.4, life_exponent: 3, service_interval_h: 1, wear_h_at_install: 0 }], buses: [{ id: 'A', rated_kw: 5000 }] } as unknown as FleetVessel;
-    const [spec] = thrusterLayout(vessel, vesselModel({ type: 'construction' }).p);
+    // A fixed-pitch azimuth (variable speed) and a controllable-pitch tunnel (constant speed, pitch varies).
+    const vessel = {
+      thrusters: [
+        { id: 'AZ1', kind: 'azimuth', rated_kw: 1800, diameter_m: 2.4, life_exponent: 3, service_interval_h: 1, wear_h_at_install: 0 },
+        { id: 'T1', kind: 'tunnel', rated_kw: 1800, diameter_m: 2.4, life_exponent: 3, service_interval_h: 1, wear_h_at_install: 0 },
+      ],
+      buses: [{ id: 'A', rated_kw: 5000 }],
+    } as unknown as FleetVessel;
+    const specs = thrusterLayout(vessel, vesselModel({ type: 'construction' }).p);
     const A = (Math.PI * 2.4 * 2.4) / 4;
-    expect(spec!.maxThrust).toBeCloseTo(THRUST_EFFICIENCY * idealThrust(1.8e6, A), 6);
-    const bank = new ThrusterBank([spec!]);
-    const cmd = Float64Array.of(0.25 * spec!.maxThrust);
-    for (let k = 0; k < 200; k++) bank.step(cmd, Float64Array.of(0), Float64Array.of(1));
-    expect(bank.speed[0]!).toBeCloseTo(0.5, 6); // quarter thrust at half speed
-    expect(bank.thrust[0]!).toBeCloseTo(0.25 * spec!.maxThrust, 3);
-    const shaftPower = (bank.power[0]! - 0.02 * spec!.ratedW) / 0.98;
-    expect(shaftPower / spec!.ratedW).toBeCloseTo(0.125, 6); // eighth power at half speed
-    // And momentum theory still holds with the same derating at part load.
-    expect(bank.thrust[0]!).toBeCloseTo(THRUST_EFFICIENCY * idealThrust(shaftPower, A), 0);
+    expect(specs.map((s) => [s.cpp, s.idle])).toEqual([[false, FPP_IDLE], [true, CPP_IDLE]]);
+    for (const [i, spec] of specs.entries()) {
+      expect(spec.maxThrust).toBeCloseTo(THRUST_EFFICIENCY * idealThrust(1.8e6, A), 6);
+      const bank = new ThrusterBank(specs);
+      const cmd = new Float64Array(2);
+      cmd[i] = 0.25 * spec.maxThrust;
+      const angle = Float64Array.from(specs.map((s) => s.fixedAngle));
+      for (let k = 0; k < 200; k++) bank.step(cmd, angle, Float64Array.of(1));
+      expect(bank.speed[i]!).toBeCloseTo(0.5, 6); // quarter thrust at half speed (or pitch)
+      expect(bank.thrust[i]!).toBeCloseTo(0.25 * spec.maxThrust, 3);
+      const shaftPower = (bank.power[i]! - spec.idle * spec.ratedW) / (1 - spec.idle);
+      expect(shaftPower / spec.ratedW).toBeCloseTo(0.125, 6); // eighth power at half speed
+      // And momentum theory still holds with the same derating at part load.
+      expect(bank.thrust[i]!).toBeCloseTo(THRUST_EFFICIENCY * idealThrust(shaftPower, A), 0);
+      // Fouling: k times the power for the same thrust, so thrust per power^(2/3) falls by k^(−2/3).
+      const clean = bank.thrust[i]! / bank.power[i]! ** (2 / 3);
+      bank.powerFactor[i] = 1.2;
+      bank.step(cmd, angle, Float64Array.of(1));
+      expect(bank.thrust[i]! / bank.power[i]! ** (2 / 3) / clean).toBeCloseTo(1.2 ** (-2 / 3), 6);
+    }
   });
 
   it('power limit scales thrust so P ∝ T^(3/2) fits the available power', () => {
@@ -99,8 +121,6 @@ describe('ideal momentum theory and propeller laws', () => {
 
 describe('thrust allocation', () => {
   it('meets an unsaturated demand exactly with the real layouts (weighted pseudo-inverse)', async () => {
-    const { readFileSync } = await import('node:fs');
-    const { readFleetFile } = await import('../../lib/register/fleetFile');
     const fleet = readFleetFile(readFileSync('seed/fleet.json', 'utf8'));
     for (const v of fleet.vessels) {
       const specs = thrusterLayout(v, vesselModel(v).p);
@@ -163,5 +183,48 @@ describe('Rayleigh radial error (isotropic Gaussian, per-axis σ)', () => {
     expect(Math.abs(histQuantile(hist, 0.5) / sigma / RAYLEIGH_MEDIAN - 1)).toBeLessThan(0.04);
     expect(RAYLEIGH_P95).toBeCloseTo(2.4477, 4);
     expect(RAYLEIGH_MEDIAN).toBeCloseTo(1.1774, 4);
+  });
+});
+
+describe('what the DP knows of the environment', () => {
+  const fleet = readFleetFile(readFileSync('seed/fleet.json', 'utf8'));
+  const vessel = fleet.vessels.find((v) => v.type === 'construction')!;
+  const site = demoSite(fleet.vessels.indexOf(vessel));
+  const T0 = Date.UTC(2026, 10, 1);
+  /** Mean station env over 20 min after settling. */
+  const settle = (sim: VesselSimulator) => {
+    let res = 0, dir = 0;
+    for (let k = 0; k < 20; k++) {
+      const env = sim.interval(T0 + k * 60_000, 60).station.env!;
+      res += env.residual_kn! / 20;
+      dir = env.residual_to_deg!;
+    }
+    return { res, dir };
+  };
+
+  it('wind is the only environmental force measured directly; current shows in the estimator as an unexplained slowly varying force (common practice, no source)', () => {
+    const mdl = vesselModel(vessel);
+    // 0.5 m/s from ahead, no wind: the estimator's bias force must carry the whole current load,
+    // quadratic drag q11·U² plus linear damping d11·U on the hull (vesselModel.ts).
+    const U = 0.5;
+    const toDeg = (site.heading + 180) % 360;
+    const current = new VesselSimulator(vessel, site, { fixedWindMs: 0, calm: true, modes: false, warmUpS: 3600, steadyCurrent: { ms: U, toDeg } });
+    const c = settle(current);
+    const expectedKn = (mdl.q11 * U * U + mdl.d11 * U) / 1000;
+    expect(Math.abs(c.res / expectedKn - 1)).toBeLessThan(0.1);
+    expect(Math.abs(((c.dir - toDeg + 540) % 360) - 180)).toBeLessThan(10); // pushed the way the current sets
+    // 14 m/s of wind and no current: the anemometer and the wind feed-forward explain the wind load
+    // but for the feed-forward's model error (10 %); what remains is that and the unmeasured wave drift.
+    const wind = new VesselSimulator(vessel, site, { fixedWindMs: 14, calm: true, modes: false, warmUpS: 3600 });
+    const w = settle(wind);
+    // The heading the vessel settled on (it may turn toward the weather), the wind from 20° off the site heading.
+    const psi = wind.state.psi, from = (site.heading + 20) * DEG;
+    const windLoad = new Float64Array(3), rest = new Float64Array(3);
+    windForce(mdl, psi, 14, from, windLoad);
+    windForce(mdl, psi, 14, from, rest, 0.1);
+    waveDriftForce(mdl, psi, (0.21 * 14 * 14) / 9.80665, from, 1, rest);
+    const restKn = Math.hypot(rest[0]!, rest[1]!) / 1000;
+    expect(Math.abs(w.res / restKn - 1)).toBeLessThan(0.25);
+    expect(w.res).toBeLessThan(Math.hypot(windLoad[0]!, windLoad[1]!) / 1000);
   });
 });

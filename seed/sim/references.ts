@@ -74,6 +74,8 @@ export class ReferenceSystems {
   private readonly glitchE: Float64Array;
   /** The DP's running variance estimate per system (per axis), m². */
   readonly variance: Float64Array;
+  /** Noise multiplier per system (1 = its kind's figures; scenarios raise it). */
+  readonly noiseScale: Float64Array;
   readonly measN: Float64Array;
   readonly measE: Float64Array;
   readonly valid: Uint8Array;
@@ -113,6 +115,7 @@ export class ReferenceSystems {
     this.glitchN = f64();
     this.glitchE = f64();
     this.variance = Float64Array.from(this.fig.map((f) => f.whiteSd ** 2 + f.wanderSd ** 2));
+    this.noiseScale = new Float64Array(this.n).fill(1);
     this.measN = f64();
     this.measE = f64();
     this.valid = new Uint8Array(this.n);
@@ -134,9 +137,10 @@ export class ReferenceSystems {
   step(tS: number, trueN: number, trueE: number, estN: number, estE: number, estVar: number): void {
     const rng = this.rng;
     let invSum = 0, zN = 0, zE = 0;
+    const wander = tS % WANDER_STEP_S === 0;
     for (let i = 0; i < this.n; i++) {
       const f = this.fig[i]!;
-      if (tS % WANDER_STEP_S === 0) {
+      if (wander) {
         this.wanderN[i] = this.gmA[i]! * this.wanderN[i]! + this.gmK[i]! * rng.normal();
         this.wanderE[i] = this.gmA[i]! * this.wanderE[i]! + this.gmK[i]! * rng.normal();
       }
@@ -161,8 +165,9 @@ export class ReferenceSystems {
         this.nextGlitch[i] = this.glitchUntil[i]! - Math.log(1 - rng.next()) / f.glitchRate;
       }
       const g = tS < this.glitchUntil[i]! ? 1 : 0;
-      const mN = trueN + this.wanderN[i]! + f.whiteSd * rng.normal() + g * this.glitchN[i]!;
-      const mE = trueE + this.wanderE[i]! + f.whiteSd * rng.normal() + g * this.glitchE[i]!;
+      const k = this.noiseScale[i]!;
+      const mN = trueN + k * (this.wanderN[i]! + f.whiteSd * rng.normal()) + g * this.glitchN[i]!;
+      const mE = trueE + k * (this.wanderE[i]! + f.whiteSd * rng.normal()) + g * this.glitchE[i]!;
       this.measN[i] = mN;
       this.measE[i] = mE;
       const rN = mN - estN, rE = mE - estE;
@@ -202,6 +207,13 @@ export class ReferenceSystems {
     } else {
       this.fusedVar = Number.NaN;
     }
+  }
+
+  /** The systems are not in use (DP off): no measurements, no weights. */
+  idle(): void {
+    this.accepted.fill(0);
+    this.weight.fill(0);
+    this.fusedVar = Number.NaN;
   }
 
   resetInterval(): void {

@@ -16,6 +16,14 @@ import type { VesselParticulars } from './vesselModel';
 
 /** Fraction of ideal bollard thrust reached (common practice, no source). */
 export const THRUST_EFFICIENCY = 0.7;
+/**
+ * Power drawn at zero thrust while running, fraction of rated: controllable-
+ * pitch units turning at constant speed with zero pitch 12 %, variable-speed
+ * fixed-pitch units 2 % (from memory). This is what keeps DP thrusters in
+ * the 10–20 % load band in calm weather.
+ */
+export const CPP_IDLE = 0.12;
+export const FPP_IDLE = 0.02;
 /** Astern/reverse thrust of main propellers relative to ahead (from memory). */
 const MAIN_ASTERN = 0.65;
 /** Blade tip speed at full rpm, m/s (from memory, typical 35–40 m/s). */
@@ -51,6 +59,19 @@ export interface ThrusterSpec {
   /** Full shaft speed, rpm. */
   maxRpm: number;
   bus: number;
+  /**
+   * Controllable pitch at constant shaft speed (tunnels and main propellers in
+   * this demo fleet); otherwise fixed pitch at variable speed (azimuths,
+   * retractables). The control fraction s is then pitch, not speed.
+   */
+  cpp: boolean;
+  /** Power at zero thrust while running, fraction of rated (CPP_IDLE or FPP_IDLE). */
+  idle: number;
+}
+
+/** The switchboard section (index into vessel.buses) the i-th thruster draws from: round-robin (invented). */
+export function busOfThruster(vessel: Pick<FleetVessel, 'buses'>, i: number): number {
+  return vessel.buses.length ? i % vessel.buses.length : 0;
 }
 
 /**
@@ -102,15 +123,24 @@ export function thrusterLayout(vessel: FleetVessel, p: VesselParticulars): Thrus
       maxThrust,
       maxReverse: t.kind === 'main' ? MAIN_ASTERN * maxThrust : t.kind === 'tunnel' ? 0.95 * maxThrust : maxThrust,
       maxRpm: (60 * TIP_SPEED) / (Math.PI * diameter),
-      bus: vessel.buses.length ? i % vessel.buses.length : 0,
+      bus: busOfThruster(vessel, i),
+      cpp: t.kind === 'tunnel' || t.kind === 'main',
+      idle: t.kind === 'tunnel' || t.kind === 'main' ? CPP_IDLE : FPP_IDLE,
     };
   });
 }
 
 /**
- * Per-thruster state in typed arrays: shaft speed as a fraction of full
- * (signed), azimuth angle (rad), thrust (N, along the unit's direction) and
- * power (W). First-order speed dynamics and a rate-limited azimuth.
+ * Per-thruster state in typed arrays: control fraction s (shaft speed, or
+ * pitch for controllable-pitch units; signed), azimuth angle (rad), thrust
+ * (N, along the unit's direction) and power (W). First-order dynamics and a
+ * rate-limited azimuth. A stopped unit gives no thrust and draws no power.
+ *
+ * Thrust T = T_max·s|s| and power P = P_rated·k·(idle + (1 − idle)|s|³): the
+ * affinity laws for a fixed-pitch unit; for a controllable-pitch unit at
+ * constant speed the same shape is used (common practice, no source). k is
+ * the fouling factor (scenarios): a fouled unit draws k times the power for
+ * the same thrust, so its thrust per power^(2/3) falls by k^(−2/3).
  */
 export class ThrusterBank {
   readonly n: number;
@@ -121,6 +151,12 @@ export class ThrusterBank {
   /** cos and sin of angle (kept in step with it). */
   readonly cos: Float64Array;
   readonly sin: Float64Array;
+  /** 1 while the unit runs. */
+  readonly on: Uint8Array;
+  /** Starts since the counter was last cleared. */
+  readonly starts: Int32Array;
+  /** Power drawn for the same thrust (1 = clean; fouling scenarios raise it). */
+  readonly powerFactor: Float64Array;
   private readonly alpha: number;
   private readonly slew: number;
 
@@ -134,6 +170,9 @@ export class ThrusterBank {
     this.slew = SLEW_DEG_S * DEG * h;
     this.cos = new Float64Array(this.n);
     this.sin = new Float64Array(this.n);
+    this.on = new Uint8Array(this.n).fill(1);
+    this.starts = new Int32Array(this.n);
+    this.powerFactor = new Float64Array(this.n).fill(1);
     specs.forEach((s, i) => {
       this.angle[i] = s.azimuthing ? 0 : s.fixedAngle;
       this.cos[i] = Math.cos(this.angle[i]!);
@@ -141,7 +180,20 @@ export class ThrusterBank {
     });
   }
 
-  /** Shaft-speed fraction that gives thrust T (N): T = T_max·s|s|. */
+  /** Start (counted) or stop unit i. */
+  setRunning(i: number, run: boolean): void {
+    if (run && !this.on[i]) {
+      this.on[i] = 1;
+      this.starts[i] = this.starts[i]! + 1;
+    } else if (!run && this.on[i]) {
+      this.on[i] = 0;
+      this.speed[i] = 0;
+      this.thrust[i] = 0;
+      this.power[i] = 0;
+    }
+  }
+
+  /** Control fraction that gives thrust T (N): T = T_max·s|s|. */
   speedFor(i: number, thrust: number): number {
     const s = this.specs[i]!;
     if (thrust >= 0) return Math.sqrt(Math.min(1, thrust / s.maxThrust));
@@ -150,11 +202,12 @@ export class ThrusterBank {
 
   /**
    * Step toward the commanded thrust (N, signed) and angle (rad, azimuthing
-   * units only). `limit` ∈ (0, 1] scales the commanded thrust of the units on
-   * each bus when power is short (power.ts).
+   * units only). `busScale` ∈ (0, 1] scales the commanded thrust of the units
+   * on each bus when power is short (power.ts).
    */
   step(cmdThrust: Float64Array, cmdAngle: Float64Array, busScale: Float64Array): void {
     for (let i = 0; i < this.n; i++) {
+      if (!this.on[i]) continue;
       const s = this.specs[i]!;
       let target = this.speedFor(i, cmdThrust[i]! * busScale[s.bus]!);
       if (s.azimuthing) {
@@ -175,8 +228,7 @@ export class ThrusterBank {
       this.speed[i] = sp;
       const mag = sp * sp;
       this.thrust[i] = sp >= 0 ? s.maxThrust * mag : -s.maxReverse * mag;
-      // P = P_rated (2 % + 98 % |s|³): affinity law plus a running loss (invented), rated at full speed.
-      this.power[i] = s.ratedW * (0.02 + 0.98 * mag * Math.abs(sp));
+      this.power[i] = s.ratedW * this.powerFactor[i]! * (s.idle + (1 - s.idle) * mag * Math.abs(sp));
     }
   }
 }

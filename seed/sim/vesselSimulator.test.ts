@@ -11,7 +11,7 @@ const T0 = Date.UTC(2026, 10, 30, 6);
 describe('physics-based vessel simulator', () => {
   it('produces records that pass recordSchemas for every demo vessel and stream, track included', () => {
     fleet.vessels.forEach((vessel, i) => {
-      const sim = new VesselSimulator(vessel, demoSite(i), { track: true, warmUpS: 120 });
+      const sim = new VesselSimulator(vessel, demoSite(i), { track: true, warmUpS: 120, modes: false });
       for (let k = 0; k < 20; k++) {
         const dt = k === 5 ? 1 : k === 6 ? 300 : 60;
         const tMs = T0 + k * 600_000;
@@ -44,7 +44,7 @@ describe('physics-based vessel simulator', () => {
   it('closed loop: in steady moderate wind each vessel type holds within a few metres and degrees', () => {
     for (const type of ['construction', 'drilling', 'supply', 'shuttle tanker']) {
       const i = fleet.vessels.findIndex((v) => v.type === type);
-      const sim = new VesselSimulator(fleet.vessels[i]!, demoSite(i), { fixedWindMs: 12, calm: true, warmUpS: 900 });
+      const sim = new VesselSimulator(fleet.vessels[i]!, demoSite(i), { fixedWindMs: 12, calm: true, warmUpS: 900, modes: false });
       let rMax = 0, hMax = 0, estMax = 0;
       for (let k = 0; k < 30; k++) {
         const r = sim.interval(T0 + k * 60_000, 60);
@@ -64,8 +64,9 @@ describe('physics-based vessel simulator', () => {
 
   it('the power limit cuts in when a section cannot supply the thrust', () => {
     const base = fleet.vessels.find((v) => v.type === 'construction')!;
-    const weak = { ...base, buses: base.buses.map((b) => ({ ...b, rated_kw: 1000 })) };
-    const sim = new VesselSimulator(weak, demoSite(0), { fixedWindMs: 22, calm: true, warmUpS: 300 });
+    // 2 MW a section: enough for hotel load and the units' running losses, not for the thrust 22 m/s asks.
+    const weak = { ...base, buses: base.buses.map((b) => ({ ...b, rated_kw: 2000 })) };
+    const sim = new VesselSimulator(weak, demoSite(0), { fixedWindMs: 22, calm: true, warmUpS: 300, modes: false });
     let limitS = 0, events = 0;
     for (let k = 0; k < 20; k++) {
       const p = sim.interval(T0 + k * 60_000, 60).power;
