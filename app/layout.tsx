@@ -1,6 +1,8 @@
 import type { Metadata, Viewport } from 'next';
 import Link from 'next/link';
 import type { ReactNode } from 'react';
+import { CAUTION_SHORT } from '../lib/web/cautions';
+import NavLinks from './components/NavLinks';
 import './globals.css';
 
 export const metadata: Metadata = {
@@ -30,7 +32,7 @@ export default function RootLayout({ children }: { children: ReactNode }) {
               </svg>
               <span className="brand__name">Holdfast</span>
             </Link>
-            <span className="site-header__tagline">Station-keeping analytics for DP fleets</span>
+            <NavLinks />
           </div>
         </header>
         <main id="main" className="wrap site-main" tabIndex={-1}>
@@ -40,11 +42,7 @@ export default function RootLayout({ children }: { children: ReactNode }) {
           <div className="wrap">
             <p className="caution" data-testid="caution">
               <strong className="caution__label">Caution</strong>
-              <span>
-                Holdfast is advisory and after the fact. It is not part of any DP control system and not a class or
-                compliance tool; follow your vessel's DP documentation, class rules, industry guidance and licensed
-                practice.
-              </span>
+              <span>{CAUTION_SHORT}</span>
             </p>
           </div>
         </footer>

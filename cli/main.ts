@@ -19,6 +19,19 @@ Usage: holdfast <command> [options]     (or: npm run holdfast -- <command> …)
                           create a JSON API token (printed alone on the last line)
   token list | token revoke ID
                           list API tokens; revoke one (docs/api.md)
+  user create --email E --name N --role ROLE [--organisation KEY]
+                          create a user; the password is typed or piped on stdin
+  user list | user disable --email E
+                          list users; disable one and end its sessions
+  vessel credentials KEY [--revoke]
+                          new MQTT credentials for a vessel, printed once
+  broker export --out DIR write Mosquitto password, ACL and config files
+  broker ingest-credentials
+                          new MQTT credentials for the ingest workers, printed once
+  flags evaluate [--day DAY | --from DAY --to DAY]
+                          evaluate the trend flags of those days (default yesterday)
+  flags ack|close|settings|webhook|deliver …
+                          work through flags, settings, webhooks (docs/flags.md)
   help                    this text
 
 Settings come from the environment; see README.md.`;
@@ -35,6 +48,15 @@ async function main(argv: string[]): Promise<void> {
       name: { type: 'string' },
       role: { type: 'string' },
       campaign: { type: 'string' },
+      email: { type: 'string' },
+      organisation: { type: 'string' },
+      out: { type: 'string' },
+      revoke: { type: 'boolean', default: false },
+      day: { type: 'string' },
+      by: { type: 'string' },
+      note: { type: 'string' },
+      reason: { type: 'string' },
+      secret: { type: 'string' },
     },
   });
   const [command, ...rest] = positionals;
@@ -64,6 +86,14 @@ async function main(argv: string[]): Promise<void> {
       throw new UsageError('usage: holdfast fleet import FILE');
     case 'token':
       return (await import('./commands/token')).tokenCommand(config, log, rest, values);
+    case 'user':
+      return (await import('./commands/user')).userCommand(config, log, rest, values);
+    case 'vessel':
+      return (await import('./commands/vessel')).vesselCommand(config, log, rest, values);
+    case 'broker':
+      return (await import('./commands/broker')).brokerCommand(config, log, rest, values);
+    case 'flags':
+      return (await import('./commands/flags')).flagsCommand(config, log, rest, values);
     default:
       throw new UsageError(`unknown command "${command}"; try: holdfast help`);
   }

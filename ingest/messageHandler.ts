@@ -2,6 +2,7 @@ import type { Pool } from 'pg';
 import { parsePayload } from '../lib/telemetry/parsePayload';
 import type { Stream } from '../lib/telemetry/schemas';
 import { parseTopic } from '../lib/telemetry/topic';
+import { recordBatch } from './recordBatch';
 import {
   QUARANTINE_PAYLOAD_CHARS,
   writeInTransaction,
@@ -67,11 +68,12 @@ export class MessageHandler {
     if (vesselId === undefined) {
       return whole({ reason: 'unknown_vessel', vesselKey: where.vessel, stream: where.stream, detail: `vessel "${where.vessel}" is not registered` });
     }
-    const parsed = parsePayload(where.stream, payload, now);
+    const { stream } = where;
+    const parsed = parsePayload(stream, payload, now);
     return {
       topic,
-      rejected: parsed.rejected.map((r) => ({ ...r, topic, vesselKey: where.vessel, stream: where.stream })),
-      batch: parsed.records.length ? { stream: where.stream, vesselId, records: parsed.records } : undefined,
+      rejected: parsed.rejected.map((r) => ({ ...r, topic, vesselKey: where.vessel, stream })),
+      batch: parsed.records.length ? recordBatch(stream, vesselId, parsed.records, rereader(stream, payload, now)) : undefined,
     };
   }
 
@@ -91,6 +93,13 @@ export class MessageHandler {
   }
 }
 
+/**
+ * The records of a message, read again from its payload: they are needed
+ * again only when the store refuses them, so a waiting message keeps its
+ * payload bytes instead of its many small record objects.
+ */
+const rereader = (stream: Stream, payload: Buffer, now: Date) => () => parsePayload(stream, payload, now).records;
+
 /** PostgreSQL text cannot hold U+0000: it would fail the whole write. */
 const noNul = (s: string) => s.replaceAll('\u0000', '\uFFFD');
 
@@ -100,6 +109,7 @@ const noNul = (s: string) => s.replaceAll('\u0000', '\uFFFD');
  * a record too deeply nested for JSON.stringify shown as the message text.
  */
 function storable(message: PreparedMessage, payload: Buffer): PreparedMessage {
+  if (message.rejected.length === 0) return message; // the usual case
   const text = (value: unknown): string => {
     if (typeof value === 'string') return value;
     try {

@@ -5,12 +5,15 @@ import { from as copyFrom } from 'pg-copy-streams';
 import type { Rejection } from '../lib/telemetry/parsePayload';
 import { STREAMS, type Stream, type TelemetryRecord } from '../lib/telemetry/schemas';
 import { tableSpecs } from '../lib/telemetry/tables';
-import { copyLine } from './copyText';
+import { recordBatch, type RecordBatch } from './recordBatch';
 
-export interface RecordBatch<S extends Stream = Stream> {
-  stream: S;
+export type { RecordBatch } from './recordBatch';
+
+/** Records not rendered yet: what tests and benchmarks that load data through the writer hand it. */
+export interface RecordList {
+  stream: Stream;
   vesselId: number;
-  records: TelemetryRecord[S][];
+  records: TelemetryRecord[Stream][];
 }
 
 /** A rejection on its way to the quarantine table. */
@@ -23,18 +26,19 @@ export interface Quarantined extends Rejection {
 /** What one MQTT message contributes to a flush. */
 export interface PreparedMessage {
   topic: string;
-  batch?: RecordBatch;
+  /** The ingest worker renders its records when it reads them; a plain list is rendered at the flush. */
+  batch?: RecordBatch | RecordList;
   rejected: Quarantined[];
 }
 
+/** The batch rendered (a plain record list is rendered now). */
+export function rendered(batch: RecordBatch | RecordList): RecordBatch {
+  return 'copy' in batch ? batch : recordBatch(batch.stream, batch.vesselId, batch.records, () => batch.records);
+}
+
 /** Table rows a batch becomes: one per record, or one per unit for per-unit streams. */
-export function rowsIn(batch: RecordBatch | undefined): number {
-  if (!batch) return 0;
-  let rows = 0;
-  for (const r of batch.records as { units?: unknown[]; buses?: unknown[]; systems?: unknown[] }[]) {
-    rows += (r.units ?? r.buses ?? r.systems)?.length ?? 1;
-  }
-  return rows;
+export function rowsIn(batch: RecordBatch | RecordList | undefined): number {
+  return batch ? rendered(batch).rows : 0;
 }
 
 export interface StreamResult {
@@ -68,18 +72,23 @@ async function ensureStaging(client: PoolClient): Promise<void> {
   stagingReady.add(client);
 }
 
-async function copyRows(client: PoolClient, table: string, columns: readonly string[], rows: unknown[][]) {
-  // Lines go out in chunks of about 1 MB: one stream write per line costs more than the COPY itself.
+/** COPY data goes out in chunks of about this many bytes: one stream write per message costs more than the COPY itself. */
+const COPY_CHUNK_BYTES = 256 * 1024;
+
+async function copyRows(client: PoolClient, table: string, columns: readonly string[], texts: Buffer[]) {
   const chunks = function* () {
-    let chunk = '';
-    for (const row of rows) {
-      chunk += copyLine(row);
-      if (chunk.length >= 1 << 20) {
-        yield chunk;
-        chunk = '';
+    let chunk: Buffer[] = [];
+    let bytes = 0;
+    for (const text of texts) {
+      chunk.push(text);
+      bytes += text.length;
+      if (bytes >= COPY_CHUNK_BYTES) {
+        yield Buffer.concat(chunk, bytes);
+        chunk = [];
+        bytes = 0;
       }
     }
-    if (chunk) yield chunk;
+    if (bytes > 0) yield Buffer.concat(chunk, bytes);
   };
   await pipeline(Readable.from(chunks()), client.query(copyFrom(`COPY stage_${table} (${columns.join(', ')}) FROM STDIN`)));
 }
@@ -149,32 +158,31 @@ async function writeQuarantine(client: PoolClient, rejected: Quarantined[]) {
  */
 export async function writeMessages(client: PoolClient, messages: PreparedMessage[], fleetTimeZone: string): Promise<WriteResult> {
   await ensureStaging(client);
-  const rowsByStream = new Map<Stream, unknown[][]>();
+  const byStream = new Map<Stream, { texts: Buffer[]; rows: number; months: string[] }>();
   const rejected: Quarantined[] = [];
   for (const message of messages) {
-    rejected.push(...message.rejected);
-    const batch = message.batch;
-    if (!batch) continue;
-    const spec = tableSpecs[batch.stream] as (typeof tableSpecs)[Stream];
-    const rows = rowsByStream.get(batch.stream) ?? [];
-    for (const record of batch.records) for (const row of spec.rows(batch.vesselId, record as never)) rows.push(row);
-    rowsByStream.set(batch.stream, rows);
+    for (const r of message.rejected) rejected.push(r);
+    const batch = message.batch && rendered(message.batch);
+    if (!batch || batch.rows === 0) continue;
+    let staged = byStream.get(batch.stream);
+    if (!staged) byStream.set(batch.stream, (staged = { texts: [], rows: 0, months: [] }));
+    staged.texts.push(batch.copy);
+    staged.rows += batch.rows;
+    for (const t of batch.months) staged.months.push(t);
   }
 
   const result: WriteResult = { inserted: 0, duplicates: 0, quarantined: rejected.length, byStream: {} };
-  const staged = [...rowsByStream].filter(([, rows]) => rows.length > 0);
-  for (const [stream, rows] of staged) {
+  for (const [stream, staged] of byStream) {
     const { table, columns } = tableSpecs[stream];
-    const tIndex = columns.indexOf('t');
-    await ensurePartitions(client, table, rows.map((row) => row[tIndex] as string));
-    await copyRows(client, table, columns, rows);
+    await ensurePartitions(client, table, staged.months);
+    await copyRows(client, table, columns, staged.texts);
   }
-  if (staged.length > 0) await client.query(markSql(staged.map(([stream]) => tableSpecs[stream].table)), [fleetTimeZone]);
-  for (const [stream, rows] of staged) {
+  if (byStream.size > 0) await client.query(markSql([...byStream.keys()].map((stream) => tableSpecs[stream].table)), [fleetTimeZone]);
+  for (const [stream, { rows }] of byStream) {
     const inserted = (await client.query(moveSql(tableSpecs[stream].table))).rowCount ?? 0;
-    result.byStream[stream] = { inserted, duplicates: rows.length - inserted };
+    result.byStream[stream] = { inserted, duplicates: rows - inserted };
     result.inserted += inserted;
-    result.duplicates += rows.length - inserted;
+    result.duplicates += rows - inserted;
   }
   await writeQuarantine(client, rejected);
   return result;

@@ -37,9 +37,11 @@ describe('ingest pipeline, when the store refuses one message of a batch', () =>
 
     const stored = await db.pool.query(`SELECT to_char(t AT TIME ZONE 'UTC', 'HH24:MI') AS at FROM ts_station ORDER BY t`);
     expect(stored.rows.map((r) => r.at)).toEqual(['10:00', '10:02']);
-    const q = await db.pool.query('SELECT reason, stream, detail FROM quarantine');
+    const q = await db.pool.query('SELECT reason, stream, detail, payload FROM quarantine');
     expect(q.rows).toHaveLength(1);
     expect(q.rows[0]).toMatchObject({ reason: 'store_rejected', stream: 'station' });
+    // The worker keeps a waiting message as rendered rows; the refused record is read again from its payload.
+    expect(JSON.parse(q.rows[0].payload)).toEqual(JSON.parse(record(1, 60).toString()));
     expect(q.rows[0].detail).toMatch(/^records\[0\]: the store refused the message \(.*test_refuse_long_dp/);
     expect(handler.counters).toMatchObject({ messages: 3, inserted: 2, quarantined: 1 });
   });

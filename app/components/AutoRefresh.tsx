@@ -15,7 +15,17 @@ interface Props {
  * (skipped while the tab is hidden, caught up when it shows again) and says
  * when the data on screen was read. The time comes from the server render, so
  * it is the time of the data, not of the last attempt.
+ *
+ * Skipped while someone is typing: when a form field has focus, or a form is
+ * marked `data-dirty="true"` (a note written but not sent), so a refresh
+ * never disturbs a half-written acknowledgement.
  */
+function editing(): boolean {
+  const active = document.activeElement;
+  if (active instanceof HTMLElement && active.matches('input, textarea, select')) return true;
+  return document.querySelector('form[data-dirty="true"]') !== null;
+}
+
 export default function AutoRefresh({ renderedAt, everySeconds = 10 }: Props) {
   const router = useRouter();
   const [refreshing, startTransition] = useTransition();
@@ -23,7 +33,7 @@ export default function AutoRefresh({ renderedAt, everySeconds = 10 }: Props) {
   useEffect(() => {
     const refresh = () => startTransition(() => router.refresh());
     const timer = window.setInterval(() => {
-      if (document.visibilityState === 'visible') refresh();
+      if (document.visibilityState === 'visible' && !editing()) refresh();
     }, everySeconds * 1000);
     const onVisible = () => {
       if (document.visibilityState === 'visible') refresh();

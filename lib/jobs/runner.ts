@@ -2,7 +2,9 @@ import PgBoss from 'pg-boss';
 import type { Pool } from 'pg';
 import type { Logger } from '../log/logger';
 import { addDays, fleetDay } from '../time/fleetDay';
-import { recomputeDirtyDays, recomputeFleetDay } from './dailyRollup';
+import { deliverDue } from '../flags/notify/deliver';
+import { recomputeDirtyDays, recomputeFleetDay, type VesselDay } from './dailyRollup';
+import { describeEvaluation, evaluateAfterRecompute, evaluateDays } from './flagJob';
 import { maintainPartitions } from './partitionMaintenance';
 
 export interface JobRunnerOptions {
@@ -22,13 +24,19 @@ export interface JobRunner {
  * runner processes there are, and `singleton` queues never run two jobs of a
  * queue at once.
  *
- *   dirty-days   every minute            recompute days that received records
- *   nightly      00:15 fleet time zone   recompute yesterday for every vessel
+ *   dirty-days   every minute            recompute days that received records; then
+ *                                        re-evaluate flags of vessels whose changed days
+ *                                        lie in yesterday's trend window (lib/jobs/flagJob.ts)
+ *   nightly      00:15 fleet time zone   recompute yesterday for every vessel, then
+ *                                        evaluate the trend flags of yesterday
+ *   webhooks     every minute            send the flag outbox (retries with backoff);
+ *                                        also right after a run that opened flags
  *   partitions   hourly                  partitions ahead, retention
  */
 export const JOBS = {
   dirtyDays: { queue: 'holdfast-dirty-days', cron: '* * * * *' },
   nightly: { queue: 'holdfast-nightly', cron: '15 0 * * *' },
+  webhooks: { queue: 'holdfast-flag-webhooks', cron: '* * * * *' },
   partitions: { queue: 'holdfast-partitions', cron: '7 * * * *' },
 } as const;
 
@@ -51,19 +59,36 @@ export async function startJobRunner(options: JobRunnerOptions): Promise<JobRunn
     await boss.schedule(job.queue, job.cron, {}, { tz: timeZone });
   }
 
+  // A run that opened flags sends them at once rather than at the next minute's tick.
+  const sendSoon = async (opened: number) => {
+    if (opened > 0) await boss.send(JOBS.webhooks.queue, {});
+  };
   await boss.work(JOBS.dirtyDays.queue, { pollingIntervalSeconds: 2 }, async () => {
-    let total = 0;
+    const recomputed: VesselDay[] = [];
     for (;;) {
       const done = await recomputeDirtyDays(pool, timeZone);
-      total += done.length;
+      recomputed.push(...done);
       if (done.length === 0) break;
     }
-    if (total > 0) log.info(`recomputed ${total} dirty vessel-day(s)`);
+    if (recomputed.length === 0) return;
+    log.info(`recomputed ${recomputed.length} dirty vessel-day(s)`);
+    const flags = await evaluateAfterRecompute(pool, recomputed, timeZone);
+    if (flags) {
+      log.info(describeEvaluation(flags));
+      await sendSoon(flags.opened.length);
+    }
   });
   await boss.work(JOBS.nightly.queue, { pollingIntervalSeconds: 10 }, async () => {
     const yesterday = addDays(fleetDay(new Date(), timeZone), -1);
     const n = await recomputeFleetDay(pool, yesterday, timeZone);
     log.info(`nightly: computed ${yesterday} for ${n} vessel(s)`);
+    const [flags] = await evaluateDays(pool, [yesterday], timeZone);
+    log.info(describeEvaluation(flags!));
+    await sendSoon(flags!.opened.length);
+  });
+  await boss.work(JOBS.webhooks.queue, { pollingIntervalSeconds: 5 }, async () => {
+    const sent = await deliverDue(pool);
+    if (sent.attempted > 0) log.info(`flag webhooks: ${sent.delivered} delivered, ${sent.failed} failed (retried later)`);
   });
   await boss.work(JOBS.partitions.queue, { pollingIntervalSeconds: 10 }, async () => {
     const { created, dropped } = await maintainPartitions(pool);

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { z } from 'zod';
-import { powerRecord, refsRecord, stationRecord, SUM_TOLERANCE_S, thrustersRecord, trackRecord } from './schemas';
+import { Random } from '../../seed/random';
+import { isRealTime, powerRecord, refsRecord, stationRecord, SUM_TOLERANCE_S, thrustersRecord, trackRecord } from './schemas';
 
 const t = '2026-11-15T11:00:00Z';
 const station = { v: 1, t, dt: 60, mode: 'auto_position', dp_s: 60, n: 3 };
@@ -45,6 +46,30 @@ describe('timestamps', () => {
     ['0000-01-01T00:00:00Z', 'is not a real date and time'],
   ])('refuses %s', (time, message) => {
     expect(verdict(stationRecord, { ...station, t: time })).toBe(`t: ${message}`);
+  });
+
+  it('reads dates digit by digit exactly as a parse and print back through Date would', () => {
+    // The definition isRealTime replaces: the parsed time prints back as sent, and year 0000 is refused.
+    const throughDate = (s: string) => {
+      const ms = Date.parse(s);
+      return !Number.isNaN(ms) && !s.startsWith('0000') && new Date(ms).toISOString().slice(0, 19) === s.slice(0, 19);
+    };
+    const two = (n: number) => String(n).padStart(2, '0');
+    const years = [0, 1, 2, 4, 99, 100, 400, 1600, 1700, 1899, 1900, 1969, 1970, 1999, 2000, 2023, 2024, 2025, 2100, 2400, 9996, 9999];
+    const checked: string[] = [];
+    for (const year of years) {
+      for (let month = 0; month <= 13; month++) {
+        for (let day = 0; day <= 32; day++) checked.push(`${String(year).padStart(4, '0')}-${two(month)}-${two(day)}T00:00:00Z`);
+      }
+    }
+    for (const [h, m, sec] of [[0, 0, 0], [23, 59, 59], [24, 0, 0], [24, 0, 1], [23, 60, 0], [23, 59, 60], [25, 0, 0], [99, 99, 99], [12, 30, 45]]) {
+      for (const fraction of ['', '.0', '.5', '.12', '.999']) checked.push(`2024-02-29T${two(h!)}:${two(m!)}:${two(sec!)}${fraction}Z`);
+    }
+    // And random strings of the same shape, digits anywhere.
+    const rng = new Random(20261202);
+    const digits = () => String(Math.floor(rng.next() * 10));
+    for (let i = 0; i < 20_000; i++) checked.push('####-##-##T##:##:##Z'.replace(/#/g, digits));
+    for (const s of checked) expect(isRealTime(s), s).toBe(throughDate(s));
   });
 });
 

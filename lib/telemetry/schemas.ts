@@ -14,18 +14,50 @@ export type Stream = (typeof STREAMS)[number];
 export const VESSEL_KEY = /^[a-z0-9][a-z0-9-]{1,31}$/;
 export const UNIT_ID = /^[A-Za-z0-9_-]{1,16}$/;
 /** ISO 8601 UTC with `Z`, optional milliseconds: 2026-03-04T05:06:00Z. */
-const ISO_UTC = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}(\.\d{1,3})?Z$/;
+export const ISO_UTC = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}(\.\d{1,3})?Z$/;
+export const STATION_MODES = ['auto_position', 'auto_track', 'joystick', 'manual', 'standby'] as const;
+export const REF_KINDS = ['gnss', 'hydroacoustic', 'laser', 'radar', 'taut_wire', 'other'] as const;
 
 /** Tolerance for sums the gateway rounds (load bands vs run time), seconds. Common practice, no source. */
 export const SUM_TOLERANCE_S = 1;
 
 // Stored as PostgreSQL real (float4) and integer (int4): values beyond those
 // types' ranges are rejected here rather than failing a whole database batch.
-const FLOAT4_MAX = 3.4e38;
-const INT4_MAX = 2_147_483_647;
+// The predicates below are shared with the hand-written fast path
+// (fastRecord.ts), so the two cannot drift apart on them.
+export const FLOAT4_MAX = 3.4e38;
+export const INT4_MAX = 2_147_483_647;
 /** A float4 column: a non-zero value that would round to 0 there is refused by PostgreSQL ("out of range"). */
-const real = (min: number, max: number) =>
-  z.number().min(min).max(max).refine((v) => v === 0 || Math.fround(v) !== 0, 'is too close to 0 for a 32-bit float');
+export const fitsFloat4 = (v: number) => v === 0 || Math.fround(v) !== 0;
+const real = (min: number, max: number) => z.number().min(min).max(max).refine(fitsFloat4, 'is too close to 0 for a 32-bit float');
+
+/**
+ * A string matching ISO_UTC that names a real moment, written as
+ * `toISOString` would write it: month 01–12, a day that exists in that month
+ * (Gregorian leap years, proleptic as in JavaScript), hours 00–23, minutes
+ * and seconds 00–59, and not year 0000, which PostgreSQL refuses. Date.parse
+ * alone is not enough: it rolls 2026-02-30 over to March 2 and reads 24:00
+ * as the next day. Read digit by digit, without building a Date: ingest
+ * checks every record's `t` (schemas.test.ts proves it agrees with a parse
+ * and print back through Date).
+ */
+export function isRealTime(s: string): boolean {
+  const year = twoDigits(s, 0) * 100 + twoDigits(s, 2);
+  const month = twoDigits(s, 5);
+  const day = twoDigits(s, 8);
+  const hour = twoDigits(s, 11);
+  const minute = twoDigits(s, 14);
+  const second = twoDigits(s, 17);
+  return year >= 1 && month >= 1 && month <= 12 && day >= 1 && day <= daysInMonth(year, month) && hour <= 23 && minute <= 59 && second <= 59;
+}
+
+const twoDigits = (s: string, at: number) => (s.charCodeAt(at) - 48) * 10 + s.charCodeAt(at + 1) - 48;
+
+function daysInMonth(year: number, month: number): number {
+  if (month === 2) return (year % 4 === 0 && year % 100 !== 0) || year % 400 === 0 ? 29 : 28;
+  return month === 4 || month === 6 || month === 9 || month === 11 ? 30 : 31;
+}
+
 const num = real(-FLOAT4_MAX, FLOAT4_MAX);
 const nonNegative = real(0, FLOAT4_MAX);
 const count = z.number().int().min(0).max(INT4_MAX);
@@ -35,14 +67,19 @@ const unitId = z.string().regex(UNIT_ID, 'must match ^[A-Za-z0-9_-]{1,16}$');
 const timestamp = z
   .string()
   .regex(ISO_UTC, 'must be ISO 8601 UTC ending in Z, e.g. 2026-03-04T05:06:00Z')
-  // Date.parse rolls 2026-02-30 over to March 2 and reads 24:00 as the next day,
-  // and PostgreSQL refuses year 0000: the parsed time must print back as sent.
-  .refine((s) => {
-    const ms = Date.parse(s);
-    return !Number.isNaN(ms) && !s.startsWith('0000') && new Date(ms).toISOString().slice(0, 19) === s.slice(0, 19);
-  }, 'is not a real date and time');
+  .refine(isRealTime, 'is not a real date and time');
 
 const dt = z.number().int().min(1).max(3600);
+
+/** Added left to right from 0: zod's refinements and the fast path (fastRecord.ts) must reach the same float. */
+export function sum(values: readonly number[]): number {
+  let total = 0;
+  for (const v of values) total += v;
+  return total;
+}
+
+/** Load bands may miss run time by the rounding tolerance, inclusive. */
+export const bandsMatchRunTime = (bands: number, runS: number) => !(Math.abs(bands - runS) > SUM_TOLERANCE_S);
 
 const base = { v: z.literal(1), t: timestamp, dt };
 
@@ -71,7 +108,7 @@ function uniqueIds<T extends { id: string }>(label: string) {
 export const stationRecord = z
   .object({
     ...base,
-    mode: z.enum(['auto_position', 'auto_track', 'joystick', 'manual', 'standby']),
+    mode: z.enum(STATION_MODES),
     dp_s: nonNegative,
     n: count,
     sp: z.object({ lat: z.number().min(-90).max(90), lon: z.number().min(-180).max(180), hdg: angle }).optional(),
@@ -107,7 +144,7 @@ export const stationRecord = z
   .superRefine(withinInterval((r) => [r.dp_s], 'dp_s'))
   .superRefine((r, ctx) => {
     const hist = r.err?.hist;
-    if (hist && hist.reduce((a, b) => a + b, 0) !== r.n) {
+    if (hist && sum(hist) !== r.n) {
       ctx.addIssue({ code: 'custom', path: ['err', 'hist'], message: `counts must add up to n (${r.n})` });
     }
   });
@@ -129,9 +166,9 @@ export const thrusterUnit = z
   })
   .superRefine((u, ctx) => {
     if (!u.load_band_s) return;
-    const sum = u.load_band_s.reduce((a, b) => a + b, 0);
-    if (Math.abs(sum - u.run_s) > SUM_TOLERANCE_S) {
-      ctx.addIssue({ code: 'custom', path: ['load_band_s'], message: `must add up to run_s (${u.run_s}), got ${sum}` });
+    const total = sum(u.load_band_s);
+    if (!bandsMatchRunTime(total, u.run_s)) {
+      ctx.addIssue({ code: 'custom', path: ['load_band_s'], message: `must add up to run_s (${u.run_s}), got ${total}` });
     }
   });
 
@@ -156,7 +193,7 @@ export const powerRecord = z
 
 export const refSystem = z.object({
   id: unitId,
-  kind: z.enum(['gnss', 'hydroacoustic', 'laser', 'radar', 'taut_wire', 'other']).optional(),
+  kind: z.enum(REF_KINDS).optional(),
   online_s: nonNegative.optional(),
   weight: real(0, 1).optional(),
   sd_m: nonNegative.optional(),

@@ -1,0 +1,45 @@
+import type { FlagSettings } from './config';
+import type { Judgement } from './judge';
+
+/** The figures behind a flag, stored as flag.evidence (JSON, snake_case like the API). */
+export function evidenceOf(j: Judgement, settings: FlagSettings, direction: string): Record<string, unknown> {
+  const d = j.detection;
+  const t = d.trend;
+  const e = d.ewma;
+  return {
+    direction,
+    // 'log': level, slope, EWMA, limits and min_change below are natural logs of the figure.
+    scale: d.scale,
+    days_with_data: d.n,
+    level: d.level,
+    min_change: d.minChange,
+    // Weather adjustment (lib/flags/weather.ts): y − β1·(W² − mean W²), fitted on the baseline days.
+    weather_adjustment: j.weather && { beta0: j.weather.beta0, beta1_per_w2: j.weather.beta1, mean_w2: j.weather.meanW2, baseline_days: j.weather.baselineDays },
+    mann_kendall: t && {
+      holds: t.holds,
+      s: t.mk.s,
+      var_s: t.mk.varS,
+      z: t.mk.z,
+      p_increasing: t.mk.pIncreasing,
+      p_decreasing: t.mk.pDecreasing,
+      p_two_sided: t.mk.pTwoSided,
+      alpha: settings.mannKendall.alpha,
+      sen_slope_per_day: t.sen.slope,
+      sen_lower: t.sen.lower,
+      sen_upper: t.sen.upper,
+      sen_confidence: t.sen.confidence,
+      change_over_window: t.change,
+    },
+    ewma: e && {
+      holds: e.holds,
+      lambda: settings.ewma.lambda,
+      k: settings.ewma.k,
+      target: e.target,
+      sigma: e.sigma,
+      baseline_days: e.baselineDays,
+      ewma: e.ewma,
+      z: e.z,
+      limit: e.limit,
+    },
+  };
+}

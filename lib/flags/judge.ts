@@ -1,0 +1,64 @@
+import type { FlagSettings, SeriesSettings } from './config';
+import { detect, type Detection } from './detect';
+import { firstDayAfterClose } from './lifecycle';
+import type { WatchedSeries } from './series';
+import { adjustForWeather, fitWeather, type WeatherFit } from './weather';
+import { rangesFor, within, type DayValue } from './window';
+
+/**
+ * One series on one day, from its stored values to a detection: the window
+ * and baseline of the day (window.ts), clipped to the days after the
+ * series' last closed flag (lifecycle.ts), weather-adjusted when the series
+ * asks for it (weather.ts), then the two methods (detect.ts). Pure.
+ *
+ * A weather-adjusted series is judged only once its baseline holds
+ * minBaselineDays days with wind: without a fit there is no telling weather
+ * from wear. Other series are judged from minDays in the window
+ * (Mann–Kendall alone until the baseline exists for the EWMA chart).
+ */
+
+export interface Judgement {
+  detection: Detection;
+  weather: WeatherFit | null;
+}
+
+export function judge(
+  values: readonly DayValue[],
+  wind: ReadonlyMap<string, number>,
+  watched: WatchedSeries,
+  series: SeriesSettings,
+  settings: FlagSettings,
+  day: string,
+  closedDay: string | null,
+): Judgement | null {
+  const r = rangesFor(day, settings);
+  const windowFrom = firstDayAfterClose(r.window.from, closedDay);
+  let window = within(values, windowFrom, day);
+  let baseline = within(values, firstDayAfterClose(r.baseline.from, closedDay), r.baseline.to);
+  // Scale figures (RMS, sd, p95, efficiency) are judged as logarithms when all are positive.
+  const scale = series.logScale && window.every((d) => d.value > 0) && baseline.every((d) => d.value > 0) ? 'log' : 'linear';
+  if (scale === 'log') {
+    window = window.map((d) => ({ day: d.day, value: Math.log(d.value) }));
+    baseline = baseline.map((d) => ({ day: d.day, value: Math.log(d.value) }));
+  }
+  let weather: WeatherFit | null = null;
+  if (series.weatherAdjust) {
+    weather = fitWeather(baseline, wind, settings.minBaselineDays);
+    if (!weather) return null;
+    window = adjustForWeather(window, wind, weather);
+    baseline = adjustForWeather(baseline, wind, weather);
+  }
+  // A unit whose figure scatters too much in its baseline is not judged (config: maxBaselineScatter).
+  const limit = series.maxBaselineScatter;
+  if (limit !== null && baseline.length >= settings.minBaselineDays && scatter(baseline.map((d) => d.value), scale) > limit) return null;
+  const healthy = watched.healthyLevel === null ? null : scale === 'log' ? Math.log(watched.healthyLevel) : watched.healthyLevel;
+  const detection = detect(window, baseline, watched.direction, series, settings, { from: windowFrom, to: day }, scale, healthy);
+  return detection && { detection, weather };
+}
+
+/** Day-to-day scatter of baseline values: the sd of their logs (≈ coefficient of variation), or sd / |mean| on the linear scale. */
+function scatter(values: readonly number[], scale: 'log' | 'linear'): number {
+  const m = values.reduce((s, x) => s + x, 0) / values.length;
+  const sd = Math.sqrt(values.reduce((s, x) => s + (x - m) ** 2, 0) / (values.length - 1));
+  return scale === 'log' ? sd : Math.abs(m) > 0 ? sd / Math.abs(m) : Infinity;
+}

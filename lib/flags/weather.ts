@@ -1,0 +1,42 @@
+import { huberRegression } from '../metrics/normalisedAccuracy';
+import type { DayValue } from './window';
+
+/**
+ * Weather adjustment of a raw daily series before the trend tests, so that
+ * a change of weather alone does not look like degradation (heading RMS,
+ * thruster efficiency and power-limit events all move with the wind on a
+ * healthy vessel; p95 is handled by the daily job's p95_norm instead).
+ *
+ * Method: regression adjustment (D. M. Hawkins, "Regression adjustment for
+ * variables in multivariate quality control", J. Quality Technology 25
+ * (1993) 170–182): fit the series on the weather over the baseline days
+ * only, then judge each day's value with the weather's share removed,
+ *   y_adj = y − β1·(W² − mean W² of the baseline days),
+ * so adjusted values keep the baseline's level and unit. The model is the
+ * one p95_norm uses, y = β0 + β1·W² with W the day's mean wind (drag grows
+ * with the square of the speed), fitted by the same Huber IRLS
+ * (lib/metrics/normalisedAccuracy.ts), so one stormy day cannot bend it.
+ * The fit never sees the window, so a fault's trend stays in the adjusted
+ * values. A day without a wind figure cannot be adjusted and is left out.
+ */
+
+export interface WeatherFit {
+  beta0: number;
+  beta1: number;
+  meanW2: number;
+  baselineDays: number;
+}
+
+/** Fit over the baseline values that have a wind figure; null without at least `minDays` of them or a solvable fit. */
+export function fitWeather(baseline: readonly DayValue[], wind: ReadonlyMap<string, number>, minDays: number): WeatherFit | null {
+  const points = baseline.filter((d) => wind.has(d.day));
+  if (points.length < minDays) return null;
+  const w2 = points.map((d) => wind.get(d.day)! ** 2);
+  const fit = huberRegression(w2.map((x) => [1, x]), points.map((d) => d.value));
+  if (!fit) return null;
+  return { beta0: fit.coef[0]!, beta1: fit.coef[1]!, meanW2: w2.reduce((s, x) => s + x, 0) / w2.length, baselineDays: points.length };
+}
+
+export function adjustForWeather(values: readonly DayValue[], wind: ReadonlyMap<string, number>, fit: WeatherFit): DayValue[] {
+  return values.filter((d) => wind.has(d.day)).map((d) => ({ day: d.day, value: d.value - fit.beta1 * (wind.get(d.day)! ** 2 - fit.meanW2) }));
+}

@@ -1,0 +1,107 @@
+import type { Queryable } from '../api/context';
+
+/**
+ * Flags for the shore watchlist, with everything a card shows (lifecycle
+ * fields included), filtered and ordered in SQL:
+ * - status: the statuses asked for (default open and acknowledged);
+ * - vessel key, subject kind (vessel, thruster, ref) and metric, each optional;
+ * - order "severity": alarm, warning, advisory, then newest opened_day, then
+ *   newest id; order "newest": newest first, then most severe.
+ * At most WATCHLIST_LIMIT flags; `total` says how many matched.
+ */
+export const WATCHLIST_LIMIT = 100;
+export const SUBJECT_KINDS = ['vessel', 'thruster', 'ref'] as const;
+export type SubjectKind = (typeof SUBJECT_KINDS)[number];
+export const WATCHLIST_ORDERS = ['severity', 'newest'] as const;
+export type WatchlistOrder = (typeof WATCHLIST_ORDERS)[number];
+
+export interface WatchlistFilter {
+  statuses: readonly ('open' | 'acknowledged' | 'closed')[];
+  vessel?: string;
+  subjectKind?: SubjectKind;
+  metric?: string;
+  order: WatchlistOrder;
+}
+
+export interface WatchlistFlag {
+  id: number;
+  vessel: string;
+  vesselName: string;
+  subject: string;
+  metric: string;
+  method: string;
+  severity: string;
+  openedDay: string;
+  windowFrom: string;
+  windowTo: string;
+  statistic: number;
+  statisticName: string;
+  explanation: string;
+  status: string;
+  acknowledgedBy: string | null;
+  acknowledgedAt: Date | null;
+  acknowledgeNote: string | null;
+  closedBy: string | null;
+  closedAt: Date | null;
+  closeReason: string | null;
+  closeNote: string | null;
+  clearDays: number;
+  /** Set by the flag job when the condition has not held long enough: it proposes closing (a person decides). */
+  closeProposedDay: string | null;
+  lastEvaluatedDay: string;
+  /** The test's figures as the flag job stored them (Mann–Kendall S, p; EWMA, limits; …). */
+  evidence: Record<string, unknown>;
+}
+
+const SEVERITY_RANK = `CASE f.severity WHEN 'alarm' THEN 3 WHEN 'warning' THEN 2 WHEN 'advisory' THEN 1 ELSE 0 END`;
+// Two fixed orderings; the filter chooses one by name, never by text from the request.
+const ORDER_BY: Record<WatchlistOrder, string> = {
+  severity: `${SEVERITY_RANK} DESC, f.opened_day DESC, f.id DESC`,
+  newest: `f.opened_day DESC, ${SEVERITY_RANK} DESC, f.id DESC`,
+};
+
+const where = `
+   WHERE f.status = ANY($1::text[])
+     AND ($2::text IS NULL OR v.key = $2)
+     AND ($3::text IS NULL OR split_part(f.subject, ':', 1) = $3)
+     AND ($4::text IS NULL OR f.metric = $4)`;
+
+const listSql = (order: WatchlistOrder) => `
+  SELECT f.id, v.key AS vessel, v.name AS "vesselName", f.subject, f.metric, f.method, f.severity,
+         to_char(f.opened_day, 'YYYY-MM-DD') AS "openedDay",
+         to_char(f.window_from, 'YYYY-MM-DD') AS "windowFrom",
+         to_char(f.window_to, 'YYYY-MM-DD') AS "windowTo",
+         f.statistic, f.statistic_name AS "statisticName", f.explanation, f.status,
+         f.acknowledged_by AS "acknowledgedBy", f.acknowledged_at AS "acknowledgedAt", f.acknowledge_note AS "acknowledgeNote",
+         f.closed_by AS "closedBy", f.closed_at AS "closedAt", f.close_reason AS "closeReason", f.close_note AS "closeNote",
+         f.clear_days AS "clearDays", to_char(f.close_proposed_day, 'YYYY-MM-DD') AS "closeProposedDay",
+         to_char(f.last_evaluated_day, 'YYYY-MM-DD') AS "lastEvaluatedDay", f.evidence
+    FROM flag f JOIN vessel v ON v.id = f.vessel_id
+  ${where}
+   ORDER BY ${ORDER_BY[order]}
+   LIMIT ${WATCHLIST_LIMIT}`;
+
+const COUNT_SQL = `SELECT count(*)::int AS n FROM flag f JOIN vessel v ON v.id = f.vessel_id ${where}`;
+
+export async function getWatchlist(db: Queryable, filter: WatchlistFilter): Promise<{ flags: WatchlistFlag[]; total: number }> {
+  const params = [filter.statuses, filter.vessel ?? null, filter.subjectKind ?? null, filter.metric ?? null];
+  const [list, total] = await Promise.all([db.query<WatchlistFlag>(listSql(filter.order), params), db.query<{ n: number }>(COUNT_SQL, params)]);
+  return { flags: list.rows.map((r) => ({ ...r, id: Number(r.id) })), total: total.rows[0]!.n };
+}
+
+/** The choices the filters offer: vessels and metrics that have a flag at all. */
+export async function getWatchlistChoices(db: Queryable): Promise<{ vessels: { key: string; name: string }[]; metrics: string[] }> {
+  const [vessels, metrics] = await Promise.all([
+    db.query<{ key: string; name: string }>(
+      `SELECT v.key, v.name FROM vessel v WHERE EXISTS (SELECT 1 FROM flag f WHERE f.vessel_id = v.id) ORDER BY v.name, v.key`,
+    ),
+    db.query<{ metric: string }>(`SELECT DISTINCT metric FROM flag ORDER BY metric`),
+  ]);
+  return { vessels: vessels.rows, metrics: metrics.rows.map((r) => r.metric) };
+}
+
+/** Flags not closed, fleet-wide: the count the navigation shows. */
+export async function countLiveFlags(db: Queryable): Promise<number> {
+  const { rows } = await db.query<{ n: number }>(`SELECT count(*)::int AS n FROM flag WHERE status <> 'closed'`);
+  return rows[0]!.n;
+}

@@ -1,0 +1,57 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { scoreFlags, scoreLine, type RaisedFlag, type Score } from '../lib/flags/evaluation/score';
+import { syntheticFleet } from '../lib/flags/evaluation/syntheticFleet';
+import { evaluateDays } from '../lib/jobs/flagJob';
+import { addDays } from '../lib/time/fleetDay';
+import { daysBetween } from '../lib/time/dayRange';
+import { createMigratedDatabase, type TestDatabase } from './helpers/db';
+import { insertSyntheticFleet } from './flagsFixtures';
+
+/**
+ * The small version of `npm run eval:flags` that CI runs: the flag job with
+ * its default settings, day by day, over an invented fleet's daily figures
+ * with known faults (lib/flags/evaluation/syntheticFleet.ts: the simulator's
+ * faults as they show in the daily series, plus a weather-only vessel and
+ * healthy ones with persistent weather and bursts), on a real database.
+ * The full evaluation on simulated telemetry is bench/flagsEval.ts.
+ */
+
+describe('flag evaluation on a synthetic fleet with known faults', () => {
+  let db: TestDatabase;
+  let score: Score;
+
+  beforeAll(async () => {
+    db = await createMigratedDatabase();
+    const fleet = syntheticFleet({ seed: 6, from: '2026-04-01', days: 100, healthy: 8, onsetDay: 60 });
+    await insertSyntheticFleet(db.pool, fleet);
+    await evaluateDays(db.pool, daysBetween(addDays(fleet.from, 9), addDays(fleet.from, fleet.days - 1)), 'UTC');
+    const { rows } = await db.pool.query<RaisedFlag>(
+      `SELECT v.key AS vessel, f.subject, f.metric, f.opened_day::text AS opened_day FROM flag f JOIN vessel v ON v.id = f.vessel_id`,
+    );
+    score = scoreFlags(fleet.truth, rows);
+    console.log(scoreLine(score));
+  }, 240_000);
+  afterAll(() => db?.drop());
+
+  it('flags every seeded fault and nothing else (targets of issue 6: P ≥ 0.9, R ≥ 0.9)', () => {
+    expect(score.falseFlags).toEqual([]);
+    expect(score.precision).toBeGreaterThanOrEqual(0.9);
+    expect(score.recall).toBeGreaterThanOrEqual(0.9);
+  });
+
+  it('does not flag the vessel whose only change is the weather', () => {
+    expect(score.weatherFalseFlags).toBe(0);
+  });
+
+  // Issue 6 targets D ≤ 7; this data does not allow it and the test does not pretend otherwise.
+  // Three of its five faults only show in their daily figure a week or more after onset (limit
+  // events start 10 days in; heading RMS scatters by 25 % a day), as in the simulator
+  // (docs/flags.md "Evaluation"). Measured here: 18 days. The bound guards against regressions.
+  it('flags within three weeks of onset in the median (measured 18 days; issue target 7 not met)', () => {
+    expect(score.medianDetectDays).not.toBeNull();
+    expect(score.medianDetectDays!).toBeLessThanOrEqual(20);
+    const delays = score.perEntry.map((p) => p.delayDays!);
+    // The faults that show at once (fouling 1 %/day, reference noise 8 %/day) within 10 days.
+    expect(delays.slice(0, 2).every((d) => d <= 10)).toBe(true);
+  });
+});
