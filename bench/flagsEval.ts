@@ -25,8 +25,9 @@
  * 2–3 on a kept database; flags are cleared first), --settings FILE.json.
  * EVAL_DATABASE_URL chooses the PostgreSQL server (default 127.0.0.1:5432).
  *
- * A full run (12 vessels × 120 days) takes about 40 minutes on this 2-core
- * machine, nearly all of it simulation and ingest; --reuse takes a minute.
+ * A full run (12 vessels × 120 days) took 34 minutes on this 2-core machine,
+ * nearly all of it simulation and ingest; --reuse takes under a minute.
+ * Results: docs/flags.md "Evaluation".
  */
 import { randomBytes } from 'node:crypto';
 import { readFileSync } from 'node:fs';

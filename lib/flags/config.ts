@@ -24,7 +24,7 @@ const seriesSchema = z
     /** Judge the series as its logarithm (lib/flags/judge.ts); for positive scale figures. */
     logScale: z.boolean(),
     /**
-     * Leave a series unjudged while its baseline scatters more than this (sd of the logs, ≈ the
+     * Leave a series unjudged while its baseline, before any weather adjustment, scatters more than this (sd of the logs, ≈ the
      * coefficient of variation; sd/mean on the linear scale). null: no limit.
      */
     maxBaselineScatter: z.number().positive().nullable(),

@@ -41,6 +41,10 @@ export function judge(
     window = window.map((d) => ({ day: d.day, value: Math.log(d.value) }));
     baseline = baseline.map((d) => ({ day: d.day, value: Math.log(d.value) }));
   }
+  // A unit whose figure scatters too much in its baseline, before any weather adjustment (idling,
+  // many operating points), is not judged: config maxBaselineScatter.
+  const limit = series.maxBaselineScatter;
+  if (limit !== null && baseline.length >= settings.minBaselineDays && scatter(baseline.map((d) => d.value), scale) > limit) return null;
   let weather: WeatherFit | null = null;
   if (series.weatherAdjust) {
     weather = fitWeather(baseline, wind, settings.minBaselineDays);
@@ -48,9 +52,6 @@ export function judge(
     window = adjustForWeather(window, wind, weather);
     baseline = adjustForWeather(baseline, wind, weather);
   }
-  // A unit whose figure scatters too much in its baseline is not judged (config: maxBaselineScatter).
-  const limit = series.maxBaselineScatter;
-  if (limit !== null && baseline.length >= settings.minBaselineDays && scatter(baseline.map((d) => d.value), scale) > limit) return null;
   const healthy = watched.healthyLevel === null ? null : scale === 'log' ? Math.log(watched.healthyLevel) : watched.healthyLevel;
   const detection = detect(window, baseline, watched.direction, series, settings, { from: windowFrom, to: day }, scale, healthy);
   return detection && { detection, weather };
