@@ -15,6 +15,13 @@ import { openDemoSite, screenshot, startWeb, type DemoSite } from './harness';
  * formula the page prints, independently of lib/web/healthScore.ts.
  */
 
+/** Open a fleet page and wait for the ranking, which streams in under the heading. */
+async function openFleet(page: Page, url: string): Promise<number | undefined> {
+  const response = await page.goto(url);
+  await page.getByTestId('score-formula').waitFor();
+  return response?.status();
+}
+
 const rowOf = (page: Page, key: string) => page.locator(`[data-testid="ranking-row"][data-vessel-key="${key}"]`);
 const keysInOrder = (page: Page) => page.getByTestId('ranking-row').evaluateAll((trs) => trs.map((tr) => tr.getAttribute('data-vessel-key')));
 
@@ -40,8 +47,7 @@ describe('Fleet ranking in a browser', () => {
 
   it('ranks every vessel by its health score and shows the formula', async () => {
     const { page, errors } = await browser.newPage();
-    const response = await page.goto(server.url);
-    expect(response?.status()).toBe(200);
+    expect(await openFleet(page, server.url)).toBe(200);
     expect(await page.getByRole('heading', { level: 1 }).textContent()).toBe('Fleet');
     expect(await page.getByText('Days are fleet days in UTC.').count()).toBe(1);
     expect(await page.getByTestId('ranking-row').count()).toBe(12);
@@ -95,7 +101,7 @@ describe('Fleet ranking in a browser', () => {
 
   it('marks stale vessels with their last-seen age', async () => {
     const { page } = await browser.newPage();
-    await page.goto(server.url);
+    await openFleet(page, server.url);
     expect(await rowOf(page, 'vardel-tern').getByTestId('age').textContent()).toMatch(/^\d+ (s|min) ago$/);
     expect(await rowOf(page, 'vardel-tern').getByTestId('stale-marker').count()).toBe(0);
     expect(await rowOf(page, 'ellisk-dawn').getByTestId('age').textContent()).toMatch(/^3 d ago$/);
@@ -108,7 +114,7 @@ describe('Fleet ranking in a browser', () => {
 
   it('sorts from the keyboard and filters by type, DP class and campaign', async () => {
     const { page, errors } = await browser.newPage();
-    await page.goto(server.url);
+    await openFleet(page, server.url);
     // Tab through the page until the "Open flags" sort link has focus, then press Enter.
     let reached = false;
     for (let i = 0; i < 40 && !reached; i++) {
@@ -125,19 +131,20 @@ describe('Fleet ranking in a browser', () => {
 
     await page.getByLabel('Type', { exact: true }).selectOption('drilling');
     await Promise.all([page.waitForURL(/type=drilling/), page.getByRole('button', { name: 'Apply' }).click()]);
+    await page.getByTestId('score-formula').waitFor();
     expect((await keysInOrder(page)).sort()).toEqual(['brisen-aurora', 'corvath-pioneer', 'tollan-spire']);
     // The chosen order survives filtering.
     expect(page.url()).toContain('sort=flags');
 
-    await page.goto(`${server.url}/?class=3`);
+    await openFleet(page, `${server.url}/?class=3`);
     const dp3 = demo.file.vessels.filter((v) => v.dp_class === 3).map((v) => v.key).sort();
     expect((await keysInOrder(page)).sort()).toEqual(dp3);
 
-    await page.goto(`${server.url}/?campaign=${demo.campaigns.tarnholm}`);
+    await openFleet(page, `${server.url}/?campaign=${demo.campaigns.tarnholm}`);
     expect((await keysInOrder(page)).sort()).toEqual(['mirrick-swift', 'osk-meridian', 'vardel-tern']);
     expect(await page.getByTestId('summary').textContent()).toContain('3 match the filters');
 
-    await page.goto(`${server.url}/?type=nothing-like-this`);
+    await openFleet(page, `${server.url}/?type=nothing-like-this`);
     expect(await page.getByTestId('no-match').isVisible()).toBe(true);
     expect(errors).toEqual([]);
     await page.close();
@@ -146,7 +153,7 @@ describe('Fleet ranking in a browser', () => {
   it('is readable on a tablet: nothing but the table scrolls sideways', async () => {
     const { page } = await browser.newPage();
     await page.setViewportSize({ width: 820, height: 1180 });
-    await page.goto(server.url);
+    await openFleet(page, server.url);
     const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
     expect(overflow).toBeLessThanOrEqual(0);
     await screenshot(page, 'fleet-tablet');
@@ -163,6 +170,7 @@ describe('Fleet ranking in a browser', () => {
 
     const { page } = await browser.newPage();
     await page.goto(emptyServer.url);
+    await page.getByTestId('empty-state').waitFor();
     expect(await page.getByTestId('empty-state').textContent()).toContain('No vessels registered yet');
     await page.goto(brokenServer.url);
     await page.getByTestId('error-state').waitFor({ timeout: 15_000 });

@@ -111,7 +111,8 @@ describe('Vessel page in a browser', () => {
     await page.goto(`${server.url}/vessels/vardel-tern`);
     await Promise.all([page.waitForURL(/days=7/), page.getByRole('link', { name: '7 days' }).click()]);
     const week = demo.days['vardel-tern']!.vessel.filter((d) => d.day >= addDays(demo.today, -6));
-    expect(await page.getByTestId('daily-row').count()).toBe(week.length);
+    // A client-side navigation: the new figures replace the old ones a moment after the URL changes.
+    await expect.poll(() => page.getByTestId('daily-row').count()).toBe(week.length);
     expect(await page.getByRole('link', { name: '7 days' }).getAttribute('aria-current')).toBe('true');
 
     const from = addDays(demo.today, -59);
@@ -120,7 +121,7 @@ describe('Vessel page in a browser', () => {
     await page.getByLabel('To', { exact: true }).fill(to);
     await Promise.all([page.waitForURL(/from=/), page.getByRole('button', { name: 'Show' }).click()]);
     const chosen = demo.days['vardel-tern']!.vessel.filter((d) => d.day >= from && d.day <= to);
-    expect(await page.getByTestId('daily-row').count()).toBe(chosen.length);
+    await expect.poll(() => page.getByTestId('daily-row').count()).toBe(chosen.length);
     expect(await text(page, 'tile-dp-hours')).toContain(`${en1(chosen.reduce((s, d) => s + d.dp_hours, 0))} h`);
     // No track that far back.
     expect(await page.getByTestId('chart-scatter').getByTestId('chart-empty').textContent()).toContain('no track positions');
