@@ -1,7 +1,7 @@
 import type { Pool } from 'pg';
 import type { Logger } from '../lib/log/logger';
 import type { MessageHandler } from './messageHandler';
-import { rendered, rowsIn, writeInTransaction, type PreparedMessage, type WriteResult } from './storeWriter';
+import { prepareConnections, rendered, rowsIn, writeInTransaction, type PreparedMessage, type WriteResult } from './storeWriter';
 
 export interface PipelineOptions {
   pool: Pool;
@@ -106,6 +106,15 @@ export class IngestPipeline {
     this.lingerMs = options.lingerMs ?? 2;
     this.highWaterRows = options.highWaterRows ?? 60_000;
     this.concurrency = options.concurrency ?? 2;
+  }
+
+  /** Get the connections of the first flushes ready (best effort: a flush can do it itself). */
+  async prepare(): Promise<void> {
+    try {
+      await prepareConnections(this.options.pool, this.concurrency);
+    } catch (error) {
+      this.options.log.warn(`could not prepare the store's connections ahead (${(error as Error).message}); the first flushes will`);
+    }
   }
 
   get depth(): { messages: number; rows: number } {

@@ -75,6 +75,21 @@ async function ensureStaging(client: PoolClient): Promise<void> {
 /** COPY data goes out in chunks of about this many bytes: one stream write per message costs more than the COPY itself. */
 const COPY_CHUNK_BYTES = 256 * 1024;
 
+/**
+ * Open `count` connections and give each its staging tables now, so that
+ * the first flushes after a start do not wait for it (creating them took
+ * the first flushes of a worker 0.5–1 s). Connections idle for long are
+ * closed by the pool; a flush on a new one prepares it itself.
+ */
+export async function prepareConnections(pool: Pool, count: number): Promise<void> {
+  const clients = await Promise.all(Array.from({ length: count }, () => pool.connect()));
+  try {
+    await Promise.all(clients.map((client) => ensureStaging(client)));
+  } finally {
+    for (const client of clients) client.release();
+  }
+}
+
 async function copyRows(client: PoolClient, table: string, columns: readonly string[], texts: Buffer[]) {
   const chunks = function* () {
     let chunk: Buffer[] = [];

@@ -86,6 +86,8 @@ export class IngestWorker {
   }
 
   async start(): Promise<void> {
+    // Before subscribing: a resumed session delivers its backlog at once.
+    await this.pipeline.prepare();
     await this.subscriber.start();
     this.statsTimer = setInterval(() => this.logStats(), STATS_EVERY_MS);
     this.statsTimer.unref();
