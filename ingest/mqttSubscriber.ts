@@ -1,6 +1,7 @@
 import mqtt, { type IClientOptions, type MqttClient, type Packet } from 'mqtt';
 import type { Logger } from '../lib/log/logger';
 import { AckQueue } from './ackQueue';
+import { classifyBrokerError, retryAtStart } from './startupRetry';
 
 export interface SubscriberOptions {
   url: string;
@@ -55,17 +56,31 @@ export class TelemetrySubscriber {
     return this.acks.waiting;
   }
 
+  /**
+   * Connect and subscribe. A broker that is not there yet is waited for
+   * (retries with backoff, a warning each); refused credentials end start-up
+   * with one clear error (ingest/startupRetry.ts).
+   */
   async start(): Promise<void> {
-    try {
-      this.client = await this.connect(5);
-    } catch (error) {
-      if (!/protocol/i.test((error as Error).message)) throw error;
-      this.options.log.info('broker does not speak MQTT 5; using MQTT 3.1.1');
-      this.client = await this.connect(4);
-    }
+    this.client = await retryAtStart(() => this.connectAnyVersion(), {
+      what: 'broker',
+      setting: 'MQTT_USERNAME/MQTT_PASSWORD',
+      classify: classifyBrokerError,
+      log: this.options.log,
+    });
     this.protocolVersion = this.client.options.protocolVersion === 5 ? 5 : 4;
     await this.client.subscribeAsync(this.options.topics, { qos: 1 });
     this.options.log.info(`subscribed to ${this.options.topics.join(', ')} (MQTT ${this.protocolVersion === 5 ? '5' : '3.1.1'})`);
+  }
+
+  private async connectAnyVersion(): Promise<MqttClient> {
+    try {
+      return await this.connect(5);
+    } catch (error) {
+      if (!/protocol/i.test((error as Error).message)) throw error;
+      this.options.log.info('broker does not speak MQTT 5; using MQTT 3.1.1');
+      return await this.connect(4);
+    }
   }
 
   private async connect(protocolVersion: 4 | 5): Promise<MqttClient> {
@@ -113,16 +128,21 @@ export class TelemetrySubscriber {
     await new Promise<void>((resolve, reject) => {
       const fail = (error: Error) => {
         client.removeListener('connect', ok);
+        client.removeListener('close', closed);
         client.end(true);
         reject(error);
       };
+      // A socket error without a code (EHOSTUNREACH …) closes the connection without an 'error' event.
+      const closed = () => fail(new Error('connection closed before the broker answered'));
       const ok = () => {
         client.removeListener('error', fail);
+        client.removeListener('close', closed);
         client.options.reconnectPeriod = RECONNECT_MS; // from now on, reconnect by itself
         resolve();
       };
       client.once('connect', ok);
       client.once('error', fail);
+      client.once('close', closed);
       client.connect();
     });
     client.on('close', () => this.markDisconnected());

@@ -85,8 +85,8 @@ describe('ingest worker against the bad-input corpus', () => {
     await db?.drop();
   });
 
-  it('has at least 60 cases, and covers every reason code', () => {
-    expect(corpus.length).toBeGreaterThanOrEqual(60);
+  it('has at least 200 cases, and covers every reason code', () => {
+    expect(corpus.length).toBeGreaterThanOrEqual(200);
     const reasons = new Set(corpus.flatMap((c) => c.expect.map((e) => e.reason)));
     expect([...reasons].sort()).toEqual(
       [

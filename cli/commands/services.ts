@@ -1,6 +1,7 @@
 import type { StatusServer } from '../../ingest/statusServer';
 import type { Config } from '../../lib/config';
 import type { Logger } from '../../lib/log/logger';
+import { classifyDatabaseError, retryAtStart } from '../../ingest/startupRetry';
 import { ingestWorkerFor, openStore, statusServerFor } from '../runtime';
 
 /** Block until SIGINT or SIGTERM, then run `stop`. */
@@ -22,7 +23,13 @@ function requireSetting(config: Config, name: 'DATABASE_URL' | 'MQTT_URL'): stri
 export async function ingestCommand(config: Config, log: Logger): Promise<void> {
   requireSetting(config, 'DATABASE_URL');
   const mqttUrl = requireSetting(config, 'MQTT_URL');
-  const store = await openStore(config, log.child('store'));
+  // A database not there yet is waited for; refused credentials end start-up with one line.
+  const store = await retryAtStart(() => openStore(config, log.child('store')), {
+    what: 'database',
+    setting: 'DATABASE_URL',
+    classify: classifyDatabaseError,
+    log: log.child('ingest'),
+  });
   const worker = ingestWorkerFor(config, store.pool, mqttUrl, log);
   const port = config.HOLDFAST_METRICS_PORT;
   let status: StatusServer | undefined;
