@@ -2,7 +2,10 @@ import type { Metadata, Viewport } from 'next';
 import Link from 'next/link';
 import type { ReactNode } from 'react';
 import { CAUTION_SHORT } from '../lib/web/cautions';
+import { can } from '../lib/auth/permissions';
+import { layoutSession } from '../lib/web/layoutSession';
 import NavLinks from './components/NavLinks';
+import SessionBar from './components/SessionBar';
 import './globals.css';
 
 export const metadata: Metadata = {
@@ -16,7 +19,17 @@ export const viewport: Viewport = {
   themeColor: '#153a47',
 };
 
-export default function RootLayout({ children }: { children: ReactNode }) {
+/** The sections each reader may open: the same rules the pages apply (lib/web/context.ts). */
+async function navHrefs(): Promise<string[]> {
+  const session = await layoutSession();
+  if (!session) return [];
+  const principal = session.principal;
+  if (principal.role === 'charterer') return ['/watchlist', '/campaigns'];
+  return ['/', '/watchlist', '/campaigns', '/reception', ...(can(principal, 'register.import') ? ['/admin'] : [])];
+}
+
+export default async function RootLayout({ children }: { children: ReactNode }) {
+  const hrefs = await navHrefs();
   return (
     <html lang="en">
       <body>
@@ -32,7 +45,8 @@ export default function RootLayout({ children }: { children: ReactNode }) {
               </svg>
               <span className="brand__name">Holdfast</span>
             </Link>
-            <NavLinks />
+            <NavLinks hrefs={hrefs} />
+            <SessionBar />
           </div>
         </header>
         <main id="main" className="wrap site-main" tabIndex={-1}>

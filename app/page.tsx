@@ -1,7 +1,7 @@
 import type { Metadata } from 'next';
 import { Suspense } from 'react';
 import { longDay } from '../lib/charts/days';
-import { pageContext } from '../lib/web/context';
+import { fleetPageContext } from '../lib/web/context';
 import { scoreWindow } from '../lib/web/fleetRanking';
 import { parseFleetView } from '../lib/web/fleetView';
 import type { RawSearchParams } from '../lib/web/searchParams';
@@ -18,7 +18,7 @@ const REFRESH_SECONDS = 60;
 
 export default async function FleetPage({ searchParams }: { searchParams: Promise<RawSearchParams> }) {
   const view = parseFleetView(await searchParams);
-  const ctx = pageContext();
+  const ctx = await fleetPageContext();
   const now = new Date();
   const today = ctx.today();
   const window = scoreWindow(today);

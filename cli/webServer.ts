@@ -4,7 +4,7 @@ import path from 'node:path';
 
 const NEXT_BIN = path.resolve('node_modules/next/dist/bin/next');
 /** What a production build of the web app is made from. */
-export const WEB_SOURCES = ['app', 'lib', 'next.config.js', 'package-lock.json'];
+export const WEB_SOURCES = ['app', 'lib', 'proxy.ts', 'next.config.js', 'package-lock.json'];
 
 /** Newest modification time among files under `paths` (0 when none). */
 export function newestMtime(paths: string[]): number {

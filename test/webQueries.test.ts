@@ -8,12 +8,16 @@ import { getTrackSample } from '../lib/queries/trackSample';
 import { getVesselProfile } from '../lib/queries/vesselProfile';
 import { getRangeHistogram } from '../lib/queries/vesselFootprint';
 import { getWatchlist, getWatchlistChoices } from '../lib/queries/watchlist';
+import type { Scope } from '../lib/auth/scope';
 import { listFleetWebhooks } from '../lib/queries/webhooks';
 import { diffCounts, registerDiff } from '../lib/web/registerDiff';
 import { histogram, insertVesselDay } from './apiHelpers';
 import { createMigratedDatabase, type TestDatabase } from './helpers/db';
 import { registerFleet } from './helpers/fleet';
 import { apiFleet } from './apiHelpers';
+
+// The whole fleet: these tests read as a shore user (scoping is tested in test/probe.test.ts).
+const FLEET: Scope = { kind: 'fleet' };
 
 /**
  * The web app's own queries (lib/queries) against a real PostgreSQL, with
@@ -131,18 +135,18 @@ describe('web queries', () => {
   });
 
   it('watchlist: live flags most severe then newest, filters, and the choices offered', async () => {
-    const list = await getWatchlist(db.pool, { statuses: ['open', 'acknowledged'], order: 'severity' });
+    const list = await getWatchlist(db.pool, { statuses: ['open', 'acknowledged'], order: 'severity' }, FLEET);
     expect(list.flags.map((f) => [f.severity, f.subject])).toEqual([
       ['alarm', 'vessel'],
       ['warning', 'thruster:T1'],
     ]);
     expect(list.total).toBe(2);
-    const newest = await getWatchlist(db.pool, { statuses: ['open', 'acknowledged'], order: 'newest' });
+    const newest = await getWatchlist(db.pool, { statuses: ['open', 'acknowledged'], order: 'newest' }, FLEET);
     expect(newest.flags.map((f) => f.subject)).toEqual(['thruster:T1', 'vessel']);
-    expect((await getWatchlist(db.pool, { statuses: ['open'], subjectKind: 'thruster', order: 'severity' })).total).toBe(1);
-    expect((await getWatchlist(db.pool, { statuses: ['closed'], metric: 'sd_m_median', order: 'severity' })).total).toBe(1);
-    expect((await getWatchlist(db.pool, { statuses: ['open'], vessel: 'ardle-shag', order: 'severity' })).total).toBe(0);
-    expect(await getWatchlistChoices(db.pool)).toEqual({
+    expect((await getWatchlist(db.pool, { statuses: ['open'], subjectKind: 'thruster', order: 'severity' }, FLEET)).total).toBe(1);
+    expect((await getWatchlist(db.pool, { statuses: ['closed'], metric: 'sd_m_median', order: 'severity' }, FLEET)).total).toBe(1);
+    expect((await getWatchlist(db.pool, { statuses: ['open'], vessel: 'ardle-shag', order: 'severity' }, FLEET)).total).toBe(0);
+    expect(await getWatchlistChoices(db.pool, FLEET)).toEqual({
       vessels: [{ key: 'kelvick-skua', name: 'Kelvick Skua' }],
       metrics: ['efficiency_index', 'p95_norm', 'sd_m_median'],
     });

@@ -1,5 +1,6 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
+import { pageContextFor } from '../../lib/web/context';
 
 export const metadata: Metadata = { title: 'Admin' };
 
@@ -10,7 +11,8 @@ const SECTIONS = [
   { href: '/admin/access', title: 'Users and access', text: 'Sign-in, roles and API tokens.' },
 ];
 
-export default function AdminPage() {
+export default async function AdminPage() {
+  await pageContextFor('register.import');
   return (
     <>
       <div className="page-head">
@@ -30,8 +32,8 @@ export default function AdminPage() {
         ))}
       </ul>
       <p className="notice">
-        Until sign-in arrives (access control is a separate, later piece of work), every page here is open to anyone who can
-        reach the web app. Run it on a network only your shore team reaches.
+        Fleet managers and admins see this area; webhooks, users and tokens are for admins only. Every change here is written
+        to the audit log.
       </p>
     </>
   );

@@ -1,6 +1,7 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { listCampaigns } from '../../lib/queries/campaigns';
+import { canSeeCampaign } from '../../lib/auth/scope';
 import { pageContext } from '../../lib/web/context';
 import CampaignList from '../components/CampaignList';
 import PageHead from '../components/PageHead';
@@ -9,8 +10,8 @@ export const dynamic = 'force-dynamic';
 export const metadata: Metadata = { title: 'Campaigns' };
 
 export default async function CampaignsPage() {
-  const ctx = pageContext();
-  const campaigns = await listCampaigns(ctx.db);
+  const ctx = await pageContext();
+  const campaigns = (await listCampaigns(ctx.db)).filter((c) => canSeeCampaign(ctx.scope, c.key));
   return (
     <>
       <PageHead title="Campaigns">

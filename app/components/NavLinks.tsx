@@ -12,12 +12,13 @@ const SECTIONS = [
   { href: '/admin', label: 'Admin', match: (p: string) => p.startsWith('/admin') },
 ];
 
-export default function NavLinks() {
+/** `hrefs`: the sections the signed-in role may open (a charterer has no fleet-wide screens); none when signed out. */
+export default function NavLinks({ hrefs }: { hrefs: readonly string[] }) {
   const path = usePathname() ?? '/';
   return (
     <nav className="site-nav" aria-label="Main">
       <ul>
-        {SECTIONS.map((s) => (
+        {SECTIONS.filter((s) => hrefs.includes(s.href)).map((s) => (
           <li key={s.href}>
             <Link href={s.href} aria-current={s.match(path) ? 'page' : undefined}>
               {s.label}

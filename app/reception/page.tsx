@@ -1,5 +1,5 @@
 import type { Metadata } from 'next';
-import { getSharedPool } from '../../lib/db/sharedPool';
+import { fleetPageContext } from '../../lib/web/context';
 import { getFleetOverview, type FleetOverviewRow, type StreamCounts } from '../../lib/queries/fleetOverview';
 import { formatAge, utcParts } from '../../lib/format/time';
 import { isStale } from '../../lib/web/staleness';
@@ -121,7 +121,8 @@ function FleetTable({ vessels, now }: { vessels: FleetOverviewRow[]; now: Date }
 
 export default async function ReceptionPage() {
   const now = new Date();
-  const vessels = await getFleetOverview(getSharedPool(), now);
+  const ctx = await fleetPageContext();
+  const vessels = await getFleetOverview(ctx.db, now);
   const stale = vessels.filter((v) => vesselStale(v, now)).length;
 
   return (

@@ -3,7 +3,9 @@ import Link from 'next/link';
 import { flagChart, flagChartRange } from '../../lib/charts/flagChart';
 import { getFlagSeries } from '../../lib/queries/flagSeries';
 import { getWatchlist, getWatchlistChoices, WATCHLIST_LIMIT } from '../../lib/queries/watchlist';
+import { can } from '../../lib/auth/permissions';
 import { pageContext } from '../../lib/web/context';
+import { visibleChartRange } from '../../lib/web/scopedRange';
 import { FLAG_METRICS, metricInfo, subjectLabel } from '../../lib/web/flagMetrics';
 import type { RawSearchParams } from '../../lib/web/searchParams';
 import { parseWatchlistView, STATUS_VIEWS } from '../../lib/web/watchlistView';
@@ -25,15 +27,16 @@ const STATUS_LABEL: Record<(typeof STATUS_VIEWS)[number], string> = {
 
 export default async function WatchlistPage({ searchParams }: { searchParams: Promise<RawSearchParams> }) {
   const view = parseWatchlistView(await searchParams);
-  const ctx = pageContext();
+  const ctx = await pageContext();
   const today = ctx.today();
   const now = new Date();
-  const [{ flags, total }, choices] = await Promise.all([getWatchlist(ctx.db, view.filter), getWatchlistChoices(ctx.db)]);
+  const [{ flags, total }, choices] = await Promise.all([getWatchlist(ctx.db, view.filter, ctx.scope), getWatchlistChoices(ctx.db, ctx.scope)]);
   const charts = await Promise.all(
     flags.map(async (f) => {
       const info = metricInfo(f.metric);
       if (!info) return null;
-      const range = flagChartRange(f.windowFrom, f.windowTo, today);
+      const range = visibleChartRange(ctx.scope, f.vessel, flagChartRange(f.windowFrom, f.windowTo, today), f.windowFrom);
+      if (!range) return null;
       const rows = await getFlagSeries(ctx.db, f, range);
       if (!rows) return null;
       return flagChart({
@@ -48,6 +51,7 @@ export default async function WatchlistPage({ searchParams }: { searchParams: Pr
       });
     }),
   );
+  const canAct = can(ctx.principal, 'flag.acknowledge');
   const filtered = view.filter.vessel || view.filter.subjectKind || view.filter.metric || view.status !== 'live';
 
   return (
@@ -122,7 +126,7 @@ export default async function WatchlistPage({ searchParams }: { searchParams: Pr
       ) : (
         <div className="flag-cards">
           {flags.map((f, i) => (
-            <FlagCard key={f.id} flag={f} chart={charts[i] ?? null} timeZone={ctx.timeZone} />
+            <FlagCard key={f.id} flag={f} chart={charts[i] ?? null} timeZone={ctx.timeZone} csrfToken={canAct ? ctx.csrfToken : null} />
           ))}
         </div>
       )}

@@ -2,7 +2,9 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import type { ChildProcess } from 'node:child_process';
 import exitHook from 'async-exit-hook';
-import { startEmbeddedBroker } from '../../lib/broker/embedded';
+import { startStoreBroker } from '../../lib/broker/storeBroker';
+import { createDemoUsers } from '../../lib/auth/demoUsers';
+import type { Pool } from '../../lib/db/pool';
 import type { Config } from '../../lib/config';
 import { startJobRunner, type JobRunner } from '../../lib/jobs/runner';
 import type { Logger } from '../../lib/log/logger';
@@ -62,15 +64,25 @@ export async function startCommand(config: Config, log: Logger, options: StartOp
     }
   }
 
+  if (config.HOLDFAST_DEMO) await makeDemoUsers(store.pool, log);
+
   let mqttUrl = config.MQTT_URL;
+  // Who the worker and the demo publisher sign in to the broker as: the settings for an
+  // outside broker; for the embedded one, credentials made for this start only.
+  let ingestLogin = { username: config.MQTT_USERNAME, password: config.MQTT_PASSWORD };
+  let publisherLogin = ingestLogin;
   if (!mqttUrl) {
-    const broker = await startEmbeddedBroker(config.HOLDFAST_EMBEDDED_MQTT_PORT);
+    // Authentication and topic rules always on: vessels sign in with their stored credentials
+    // (holdfast vessel credentials KEY), nobody connects anonymously (docs/access-control.md).
+    const { broker, local } = await startStoreBroker(store.pool, { preferredPort: config.HOLDFAST_EMBEDDED_MQTT_PORT, topicRoot: config.MQTT_TOPIC_ROOT });
     stops.push({ name: 'broker', stop: () => broker.stop() });
     mqttUrl = broker.url;
-    log.info(`embedded MQTT broker on ${broker.url}`);
+    ingestLogin = { username: local.ingest.username, password: local.ingest.password };
+    publisherLogin = { username: local.publisher.username, password: local.publisher.password };
+    log.info(`embedded MQTT broker on ${broker.url} (vessels sign in with their credentials: holdfast vessel credentials KEY)`);
   }
 
-  const worker = ingestWorkerFor(config, store.pool, mqttUrl, log);
+  const worker = ingestWorkerFor({ ...config, MQTT_USERNAME: ingestLogin.username, MQTT_PASSWORD: ingestLogin.password }, store.pool, mqttUrl, log);
   await worker.start();
   stops.push({ name: 'ingest', stop: () => worker.stop() });
 
@@ -120,7 +132,7 @@ export async function startCommand(config: Config, log: Logger, options: StartOp
     const backfill = !rows[0]!.telemetry && rows[0]!.registered === fleet.vessels.length && config.HOLDFAST_DEMO_HISTORY_DAYS > 0;
     const { MqttSink } = await import('../../seed/demo/sinks');
     const { startSupervisedDemo } = await import('../../seed/demo/supervisedDemo');
-    const sink = await MqttSink.connect({ url: mqttUrl, username: config.MQTT_USERNAME, password: config.MQTT_PASSWORD });
+    const sink = await MqttSink.connect({ url: mqttUrl, username: publisherLogin.username, password: publisherLogin.password });
     const demo = startSupervisedDemo({
       fleet,
       seed: config.HOLDFAST_DEMO_SEED,
@@ -144,4 +156,27 @@ export async function startCommand(config: Config, log: Logger, options: StartOp
   }
 
   log.info(options.web ? `Holdfast is running: ${webUrl}  (Ctrl-C stops everything)` : 'Holdfast is running without the web app (Ctrl-C stops everything)');
+}
+
+/** The organisation and campaign the demo charterer is given (a campaign of seed/fleet.json). */
+export const DEMO_CHARTERER = { organisationKey: 'aldmoor-energy', organisationName: 'Aldmoor Energy', campaignKey: 'tarnholm-tieback-2026' };
+
+/**
+ * Demo mode on a store without users: one user per role with a random
+ * password, printed this once to the terminal (not to the log, which may be
+ * shipped elsewhere). A store that has users, real or demo, gets none.
+ */
+async function makeDemoUsers(pool: Pool, log: Logger): Promise<void> {
+  const exists = (await pool.query<{ found: boolean }>('SELECT EXISTS (SELECT 1 FROM campaign WHERE key = $1) AS found', [DEMO_CHARTERER.campaignKey])).rows[0]!.found;
+  if (!exists) {
+    log.warn(`no demo users: the store has no campaign ${DEMO_CHARTERER.campaignKey} for the demo charterer`);
+    return;
+  }
+  const users = await createDemoUsers(pool, DEMO_CHARTERER);
+  if (!users) return;
+  const lines = users.map((u) => `  ${u.role.padEnd(15)} ${u.email.padEnd(38)} ${u.password}`);
+  process.stdout.write(
+    ['', 'Demo users (shown once; sign in at the web app, or change them with holdfast user):', ...lines, `  (the charterer sees campaign ${DEMO_CHARTERER.campaignKey} only)`, ''].join('\n') + '\n',
+  );
+  log.info(`demo mode: created ${users.length} demo users (credentials printed above)`);
 }

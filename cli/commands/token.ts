@@ -1,3 +1,4 @@
+import { writeAudit } from '../../lib/auth/audit';
 import type { Config } from '../../lib/config';
 import { createApiToken, listApiTokens, revokeApiToken, ROLES, TokenInputError } from '../../lib/api/tokens';
 import type { Logger } from '../../lib/log/logger';
@@ -25,10 +26,16 @@ export async function tokenCommand(config: Config, log: Logger, args: string[], 
     if (!options.name || !options.role) throw new UsageError(TOKEN_USAGE);
     return withStore(config, log, async (store) => {
       const created = await createApiToken(store.pool, { name: options.name!, role: options.role!, campaignKey: options.campaign });
+      await writeAudit(store.pool, {
+        actor: { kind: 'cli' },
+        action: 'token.create',
+        subject: `token ${created.id}`,
+        detail: { name: options.name!.trim(), role: options.role, campaign: options.campaign ?? null },
+      });
       console.log(
         `created token ${created.id} "${options.name!.trim()}" (${options.role}${options.campaign ? `, campaign ${options.campaign}` : ''}).`,
       );
-      console.log('It is shown only now; Holdfast keeps its SHA-256. Until access control arrives every token reads as admin.');
+      console.log('It is shown only now; Holdfast keeps its SHA-256. It reads what a user of its role sees (docs/access-control.md).');
       console.log(created.token);
     });
   }
@@ -44,6 +51,7 @@ export async function tokenCommand(config: Config, log: Logger, args: string[], 
   if (action === 'revoke' && id && /^\d{1,9}$/.test(id)) {
     return withStore(config, log, async (store) => {
       if (!(await revokeApiToken(store.pool, Number(id)))) throw new UsageError(`no token has the id ${id}`);
+      await writeAudit(store.pool, { actor: { kind: 'cli' }, action: 'token.revoke', subject: `token ${id}` });
       console.log(`revoked token ${id}`);
     });
   }

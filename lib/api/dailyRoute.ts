@@ -5,15 +5,17 @@ import { parseDayRange, parseFormat, type DayRange } from './params';
 import { renderList } from './render';
 import { apiRoute } from './route';
 import { columnsOf, type SchemaName } from './schemas';
+import { requireVessel, visibleDayRows } from './scoped';
 
 /**
  * The three `/vessels/{key}/…/daily?from&to` endpoints have one shape:
  * parse the range and format, read the vessel's rows, 404 for an unknown
- * key, answer `{vessel, days}` or its rows as CSV.
+ * key, answer `{vessel, days}` or its rows as CSV. A vessel outside the
+ * caller's scope is unknown (404), and only its visible days are returned.
  */
 export interface VesselDays {
   vessel: string;
-  days: object[];
+  days: { day: string }[];
   /** within_pct keys of the limits configured now (CSV columns even when no day has them). */
   limitKeys?: string[];
 }
@@ -25,11 +27,13 @@ export function vesselDailyRoute(options: {
   /** File name part: kelvick-skua-{name}-2026-01-01-2026-01-30.csv */
   name: string;
 }) {
-  return apiRoute<{ key: string }>(async ({ search, params, ctx }) => {
+  return apiRoute<{ key: string }>(async ({ search, params, ctx, scope }) => {
     const range = parseDayRange(search, ctx.today());
     const format = parseFormat(search);
-    const result = await options.query(ctx.db, params.key, range);
-    if (!result) throw notFound('vessel', params.key);
+    requireVessel(scope, params.key);
+    const found = await options.query(ctx.db, params.key, range);
+    if (!found) throw notFound('vessel', params.key);
+    const result = { ...found, days: visibleDayRows(scope, found.vessel, found.days) };
     return renderList(
       format,
       () => ({ vessel: result.vessel, days: result.days }),

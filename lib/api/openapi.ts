@@ -87,8 +87,8 @@ export function openApiDocument(): JsonSchema {
         'Read-only daily station-keeping figures of a fleet of DP vessels (api-v1). Holdfast is advisory and ' +
         'after the fact: it is not part of any DP control system and not a class or compliance tool. Numbers are ' +
         'in the units of metrics-v1; a figure that cannot be computed is null, never 0. Days are fleet days ' +
-        '(FLEET_TIME_ZONE) written YYYY-MM-DD; from and to are inclusive. Until access control arrives every ' +
-        'valid token reads as an admin token.',
+        '(FLEET_TIME_ZONE) written YYYY-MM-DD; from and to are inclusive. A token reads what a user of its role ' +
+        'reads: a charterer token only its campaign\'s vessels, on the campaign\'s days; anything else is 404.',
     },
     servers: [{ url: '/api/v1' }],
     security: [{ bearerAuth: [] }],
@@ -203,8 +203,8 @@ export function openApiDocument(): JsonSchema {
         BadRequest: errorResponse(
           `A parameter is wrong: invalid_day (not YYYY-MM-DD), invalid_range (from after to), range_too_long (more than ${MAX_RANGE_DAYS} days), invalid_parameter (format, status)`,
         ),
-        Unauthorized: errorResponse('unauthorized: no token, or an unknown or revoked one'),
-        Forbidden: errorResponse('forbidden: reserved for the token’s role (not sent until access control arrives)'),
+        Unauthorized: errorResponse('unauthorized: no token and no live session, or an unknown or revoked token'),
+        Forbidden: errorResponse('forbidden: the caller’s role may not read this (a charterer asking for lifetime thruster wear)'),
         NotFound: errorResponse('not_found: no vessel or campaign has this key'),
         InternalError: errorResponse('internal_error: the server could not answer (its log has the details)'),
       },

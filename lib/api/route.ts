@@ -1,13 +1,17 @@
-import { authenticate, type Principal } from './auth';
+import type { Principal } from '../auth/principal';
+import type { Scope } from '../auth/scope';
+import { scopeOf } from '../auth/scopeData';
+import { authenticateRequest } from './auth';
 import { apiContext, type ApiContext } from './context';
 import { ApiError } from './errors';
 import { errorResponse } from './render';
 
 /**
  * The one wrapper every /api/v1 data route goes through: context, then the
- * token (before anything else, so an unauthenticated caller learns nothing,
- * not even whether a vessel key exists), then the handler; any error becomes
- * the API's error answer.
+ * caller (before anything else, so an unauthenticated caller learns nothing,
+ * not even whether a vessel key exists), then the caller's scope
+ * (lib/auth/scope.ts), then the handler; any error becomes the API's error
+ * answer.
  */
 
 export interface RouteInput<P> {
@@ -16,6 +20,8 @@ export interface RouteInput<P> {
   params: P;
   ctx: ApiContext;
   principal: Principal;
+  /** What the caller may see; every handler filters its answer with it (lib/api/scoped.ts). */
+  scope: Scope;
 }
 
 /** The second argument Next.js passes to a route handler (Next 15+: params is a promise). */
@@ -31,9 +37,10 @@ export function apiRoute<P extends Record<string, string>>(
   return async (request, context) => {
     try {
       const ctx = apiContext();
-      const principal = await authenticate(ctx.db, request);
+      const principal = await authenticateRequest(ctx.db, request);
+      const scope = await scopeOf(ctx.db, principal);
       const search = new URL(request.url).searchParams;
-      return await handle({ request, search, params: await context.params, ctx, principal });
+      return await handle({ request, search, params: await context.params, ctx, principal, scope });
     } catch (error) {
       if (error instanceof ApiError) return errorResponse(error);
       // Unexpected (the store is down, a bug): logged in full on the server,

@@ -6,6 +6,7 @@ import { deliverDue } from '../flags/notify/deliver';
 import { recomputeDirtyDays, recomputeFleetDay, type VesselDay } from './dailyRollup';
 import { describeEvaluation, evaluateAfterRecompute, evaluateDays } from './flagJob';
 import { maintainPartitions } from './partitionMaintenance';
+import { pruneAuthState } from './authPrune';
 
 export interface JobRunnerOptions {
   connectionString: string;
@@ -32,12 +33,14 @@ export interface JobRunner {
  *   webhooks     every minute            send the flag outbox (retries with backoff);
  *                                        also right after a run that opened flags
  *   partitions   hourly                  partitions ahead, retention
+ *   auth-prune   hourly                  ended sessions and old login attempts (lib/jobs/authPrune.ts)
  */
 export const JOBS = {
   dirtyDays: { queue: 'holdfast-dirty-days', cron: '* * * * *' },
   nightly: { queue: 'holdfast-nightly', cron: '15 0 * * *' },
   webhooks: { queue: 'holdfast-flag-webhooks', cron: '* * * * *' },
   partitions: { queue: 'holdfast-partitions', cron: '7 * * * *' },
+  authPrune: { queue: 'holdfast-auth-prune', cron: '37 * * * *' },
 } as const;
 
 export async function startJobRunner(options: JobRunnerOptions): Promise<JobRunner> {
@@ -93,6 +96,11 @@ export async function startJobRunner(options: JobRunnerOptions): Promise<JobRunn
   await boss.work(JOBS.partitions.queue, { pollingIntervalSeconds: 10 }, async () => {
     const { created, dropped } = await maintainPartitions(pool);
     if (created || dropped.length) log.info(`partitions: ${created} created, ${dropped.length} dropped`);
+  });
+
+  await boss.work(JOBS.authPrune.queue, { pollingIntervalSeconds: 30 }, async () => {
+    const pruned = await pruneAuthState(pool);
+    if (pruned.sessions || pruned.attempts) log.info(`sign-in state: ${pruned.sessions} ended session(s), ${pruned.attempts} old login attempt(s) removed`);
   });
 
   // Once now, so a fresh store has its partitions before the first hourly tick.

@@ -1,4 +1,6 @@
 import type { Queryable } from '../api/context';
+import type { Scope } from '../auth/scope';
+import { scopeParams, scopeSpanSql } from './scopeWindows';
 
 /**
  * Flags for the shore watchlist, with everything a card shows (lifecycle
@@ -7,6 +9,8 @@ import type { Queryable } from '../api/context';
  * - vessel key, subject kind (vessel, thruster, ref) and metric, each optional;
  * - order "severity": alarm, warning, advisory, then newest opened_day, then
  *   newest id; order "newest": newest first, then most severe.
+ * - scope: only flags whose whole window the reader may see (canSeeSpan,
+ *   in SQL so that the limit and the count apply to what is shown).
  * At most WATCHLIST_LIMIT flags; `total` says how many matched.
  */
 export const WATCHLIST_LIMIT = 100;
@@ -64,7 +68,8 @@ const where = `
    WHERE f.status = ANY($1::text[])
      AND ($2::text IS NULL OR v.key = $2)
      AND ($3::text IS NULL OR split_part(f.subject, ':', 1) = $3)
-     AND ($4::text IS NULL OR f.metric = $4)`;
+     AND ($4::text IS NULL OR f.metric = $4)
+     AND ${scopeSpanSql(5, 'v.key', 'f.window_from', 'f.window_to')}`;
 
 const listSql = (order: WatchlistOrder) => `
   SELECT f.id, v.key AS vessel, v.name AS "vesselName", f.subject, f.metric, f.method, f.severity,
@@ -83,19 +88,22 @@ const listSql = (order: WatchlistOrder) => `
 
 const COUNT_SQL = `SELECT count(*)::int AS n FROM flag f JOIN vessel v ON v.id = f.vessel_id ${where}`;
 
-export async function getWatchlist(db: Queryable, filter: WatchlistFilter): Promise<{ flags: WatchlistFlag[]; total: number }> {
-  const params = [filter.statuses, filter.vessel ?? null, filter.subjectKind ?? null, filter.metric ?? null];
+export async function getWatchlist(db: Queryable, filter: WatchlistFilter, scope: Scope): Promise<{ flags: WatchlistFlag[]; total: number }> {
+  const params = [filter.statuses, filter.vessel ?? null, filter.subjectKind ?? null, filter.metric ?? null, ...scopeParams(scope)];
   const [list, total] = await Promise.all([db.query<WatchlistFlag>(listSql(filter.order), params), db.query<{ n: number }>(COUNT_SQL, params)]);
   return { flags: list.rows.map((r) => ({ ...r, id: Number(r.id) })), total: total.rows[0]!.n };
 }
 
-/** The choices the filters offer: vessels and metrics that have a flag at all. */
-export async function getWatchlistChoices(db: Queryable): Promise<{ vessels: { key: string; name: string }[]; metrics: string[] }> {
+/** The choices the filters offer: vessels and metrics that have a flag the reader may see. */
+export async function getWatchlistChoices(db: Queryable, scope: Scope): Promise<{ vessels: { key: string; name: string }[]; metrics: string[] }> {
+  const span = scopeSpanSql(1, 'v.key', 'f.window_from', 'f.window_to');
+  const params = scopeParams(scope);
   const [vessels, metrics] = await Promise.all([
     db.query<{ key: string; name: string }>(
-      `SELECT v.key, v.name FROM vessel v WHERE EXISTS (SELECT 1 FROM flag f WHERE f.vessel_id = v.id) ORDER BY v.name, v.key`,
+      `SELECT v.key, v.name FROM vessel v WHERE EXISTS (SELECT 1 FROM flag f WHERE f.vessel_id = v.id AND ${span}) ORDER BY v.name, v.key`,
+      params,
     ),
-    db.query<{ metric: string }>(`SELECT DISTINCT metric FROM flag ORDER BY metric`),
+    db.query<{ metric: string }>(`SELECT DISTINCT f.metric FROM flag f JOIN vessel v ON v.id = f.vessel_id WHERE ${span} ORDER BY f.metric`, params),
   ]);
   return { vessels: vessels.rows, metrics: metrics.rows.map((r) => r.metric) };
 }

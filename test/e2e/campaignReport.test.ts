@@ -122,7 +122,7 @@ describe('Campaign report in a browser', () => {
     const cells = await page.getByTestId('campaign-vessel').first().locator('td').allTextContents();
     expect(cells).toEqual(['0', '—', '—', '—', '—', '—', '—']);
     expect((await page.goto(`${server.url}/campaigns/no-such-campaign`))?.status()).toBe(404);
-    expect((await fetch(`${server.url}/campaigns/no-such-campaign/report.pdf`)).status).toBe(404);
+    expect((await fetch(`${server.url}/campaigns/no-such-campaign/report.pdf`, { headers: { cookie: site.user.cookie } })).status).toBe(404);
     await page.close();
   });
 });

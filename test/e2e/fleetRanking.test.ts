@@ -7,6 +7,7 @@ import { createMigratedDatabase, type TestDatabase } from '../helpers/db';
 import type { NextServer } from '../helpers/nextServer';
 import type { DemoFleet } from './fixtures/demoFleet';
 import { openDemoSite, screenshot, startWeb, type DemoSite } from './harness';
+import { signInBrowser } from './signIn';
 
 /**
  * The Fleet page (home): the demo fleet ranked by its health score, in
@@ -165,6 +166,7 @@ describe('Fleet ranking in a browser', () => {
     extraDbs.push(empty);
     const emptyServer = await startWeb(empty.url);
     extraServers.push(emptyServer);
+    await signInBrowser(browser.context, emptyServer, empty.pool);
     const brokenServer = await startWeb(`postgres://postgres@127.0.0.1:${await anyFreePort()}/holdfast`);
     extraServers.push(brokenServer);
 

@@ -9,6 +9,8 @@ import { launchChromium, type TestBrowser } from '../helpers/browser';
 import { createMigratedDatabase, type TestDatabase } from '../helpers/db';
 import { buildWebApp, PROJECT_ROOT, startNextServer, type NextServer } from '../helpers/nextServer';
 import { loadDemoFleet, type DemoFleet } from './fixtures/demoFleet';
+import type { Role } from '../../lib/auth/roles';
+import { signInBrowser, type SignedIn } from './signIn';
 
 /**
  * What the browser tests share: one production build of the web app for the
@@ -116,10 +118,17 @@ export interface DemoSite {
   demo: DemoFleet;
   /** An admin API token, to compare pages with the API. */
   token: string;
+  /** The user the browser is signed in as. */
+  user: SignedIn;
   close(): Promise<void>;
 }
 
-export async function openDemoSite(options: { timeZone?: string; browserTimeZone?: string } = {}): Promise<DemoSite> {
+/**
+ * `role`: who the browser is signed in as (an admin unless said otherwise,
+ * so every screen is open to it); the session cookie is put into the
+ * browser before the first page.
+ */
+export async function openDemoSite(options: { timeZone?: string; browserTimeZone?: string; role?: Role } = {}): Promise<DemoSite> {
   // Chromium first, so that a machine without it fails at once and says why.
   const browser = await launchChromium({ timezoneId: options.browserTimeZone });
   const db = await createMigratedDatabase();
@@ -127,12 +136,14 @@ export async function openDemoSite(options: { timeZone?: string; browserTimeZone
   const token = await adminToken(db.pool);
   await sharedBuild();
   const server = await startWeb(db.url, options.timeZone);
+  const user = await signInBrowser(browser.context, server, db.pool, options.role ?? 'admin');
   return {
     browser,
     db,
     server,
     demo,
     token,
+    user,
     async close() {
       await browser.close();
       await server.stop();

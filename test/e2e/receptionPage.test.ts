@@ -6,6 +6,7 @@ import { launchChromium, type TestBrowser } from '../helpers/browser';
 import { createMigratedDatabase, type TestDatabase } from '../helpers/db';
 import { startNextServer, type NextServer } from '../helpers/nextServer';
 import { screenshot, sharedBuild } from './harness';
+import { signInBrowser } from './signIn';
 
 /**
  * The Reception page (is telemetry arriving?) end to end: the shared
@@ -101,6 +102,7 @@ describe('Reception page in a browser', () => {
 
     await sharedBuild();
     server = await startNextServer({ env: { DATABASE_URL: db.url } });
+    await signInBrowser(browser.context, server, db.pool);
   }, 300_000);
 
   afterAll(async () => {
@@ -202,6 +204,7 @@ describe('Reception page in a browser', () => {
     const empty = await createMigratedDatabase();
     extraDbs.push(empty);
     const emptyServer = await startNextServer({ env: { DATABASE_URL: empty.url } });
+    await signInBrowser(browser!.context, emptyServer, empty.pool);
     extraServers.push(emptyServer);
 
     const { page, errors } = await browser!.newPage();

@@ -60,23 +60,23 @@ describe('Watchlist in a browser', () => {
     await hydrated(page);
     const fouling = card(page, demo.flags.fouling);
     const ack = fouling.getByTestId('acknowledge-form');
-    await ack.getByLabel('Your name').fill('Ana Reyes');
     await ack.getByLabel('Note').fill('Diver inspection of the BT3 tunnel booked for Friday.');
     await ack.getByRole('button', { name: 'Acknowledge' }).click();
     await fouling.getByTestId('flag-status').filter({ hasText: 'acknowledged' }).waitFor({ timeout: 15_000 });
-    expect(await fouling.getByTestId('flag-record').textContent()).toContain('Acknowledged by Ana Reyes');
+    // Recorded under the signed-in user's address, not a typed name.
+    expect(await fouling.getByTestId('flag-record').textContent()).toContain(`Acknowledged by ${site.user.email}`);
     expect(await fouling.getByTestId('acknowledge-form').count()).toBe(0);
 
     const { rows: acked } = await site.db.pool.query(
       'SELECT status, acknowledged_by, acknowledge_note, acknowledged_at FROM flag WHERE id = $1',
       [demo.flags.fouling],
     );
-    expect(acked[0]).toMatchObject({ status: 'acknowledged', acknowledged_by: 'Ana Reyes', acknowledge_note: 'Diver inspection of the BT3 tunnel booked for Friday.' });
+    expect(acked[0]).toMatchObject({ status: 'acknowledged', acknowledged_by: site.user.email, acknowledge_note: 'Diver inspection of the BT3 tunnel booked for Friday.' });
     expect(Date.now() - acked[0].acknowledged_at.getTime()).toBeLessThan(60_000);
     const viaApi = await apiJson<{ flags: { id: number; status: string }[] }>(server, site.token, '/flags?status=acknowledged');
     expect(viaApi.flags.map((x) => x.id)).toContain(demo.flags.fouling);
 
-    // Close it as resolved, leaving the name empty: recorded as "shore engineer" until sign-in exists.
+    // Close it as resolved.
     const close = fouling.getByTestId('close-form');
     await close.getByLabel('Resolved').check();
     await close.getByLabel('Note').fill('Tunnel cleaned; efficiency back to 0.92.');
@@ -84,12 +84,18 @@ describe('Watchlist in a browser', () => {
     // Closed flags leave the default view.
     await fouling.waitFor({ state: 'detached', timeout: 15_000 });
     const { rows: closed } = await site.db.pool.query('SELECT status, close_reason, closed_by, close_note FROM flag WHERE id = $1', [demo.flags.fouling]);
-    expect(closed[0]).toEqual({ status: 'closed', close_reason: 'resolved', closed_by: 'shore engineer', close_note: 'Tunnel cleaned; efficiency back to 0.92.' });
+    expect(closed[0]).toEqual({ status: 'closed', close_reason: 'resolved', closed_by: site.user.email, close_note: 'Tunnel cleaned; efficiency back to 0.92.' });
 
     await page.goto(`${server.url}/watchlist?status=closed`);
     const record = await card(page, demo.flags.fouling).getByTestId('flag-record').textContent();
-    expect(record).toContain('Acknowledged by Ana Reyes');
-    expect(record).toContain('Closed as resolved by shore engineer');
+    expect(record).toContain(`Acknowledged by ${site.user.email}`);
+    expect(record).toContain(`Closed as resolved by ${site.user.email}`);
+    // Both steps are in the audit log, under the user who took them.
+    const { rows: audit } = await site.db.pool.query(`SELECT action, actor FROM audit_log WHERE subject = $1 ORDER BY id`, [`flag ${demo.flags.fouling}`]);
+    expect(audit).toEqual([
+      { action: 'flag.acknowledge', actor: site.user.email },
+      { action: 'flag.close', actor: site.user.email },
+    ]);
     expect(await card(page, demo.flags.fouling).getByTestId('close-form').count()).toBe(0);
     expect(errors).toEqual([]);
     await page.close();

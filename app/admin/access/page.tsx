@@ -1,6 +1,7 @@
 import type { Metadata } from 'next';
 import { listApiTokens } from '../../../lib/api/tokens';
-import { pageContext } from '../../../lib/web/context';
+import { listUsers } from '../../../lib/auth/users';
+import { pageContextFor } from '../../../lib/web/context';
 import PageHead from '../../components/PageHead';
 
 export const dynamic = 'force-dynamic';
@@ -9,16 +10,43 @@ export const metadata: Metadata = { title: 'Users and access' };
 const when = (d: Date | null) => (d ? d.toISOString().replace('T', ' ').slice(0, 16) + ' UTC' : '—');
 
 export default async function AccessPage() {
-  const tokens = await listApiTokens(pageContext().db);
+  const ctx = await pageContextFor('user.manage');
+  const [users, tokens] = await Promise.all([listUsers(ctx.db), listApiTokens(ctx.db)]);
   return (
     <>
       <PageHead title="Users and access" crumbs={{ href: '/admin', label: 'Admin', here: 'users and access' }} />
-      <section className="empty" data-testid="access-placeholder">
-        <p>
-          <strong>Users, roles and sign-in are not part of this version.</strong> They come with the access-control work: admins,
-          fleet managers, shore engineers and charterers, each seeing what their role allows. Until then the web app has no
-          sign-in, and flag acknowledgements record the name typed in the form.
+      <section className="section" aria-labelledby="users-title">
+        <h2 id="users-title">Users</h2>
+        <p className="section__lede">
+          Read-only here. Create, disable and change passwords with <code>holdfast user</code>: a password is typed at the
+          terminal, never on a web form that a stolen session could use.
         </p>
+        <div className="table-scroll" role="region" aria-labelledby="users-title" tabIndex={0}>
+          <table className="data-table" data-testid="users">
+            <thead>
+              <tr>
+                <th scope="col">E-mail</th>
+                <th scope="col">Name</th>
+                <th scope="col">Role</th>
+                <th scope="col">Organisation</th>
+                <th scope="col">Last sign-in</th>
+                <th scope="col">State</th>
+              </tr>
+            </thead>
+            <tbody>
+              {users.map((u) => (
+                <tr key={u.id}>
+                  <th scope="row">{u.email}</th>
+                  <td>{u.displayName}</td>
+                  <td>{u.role}</td>
+                  <td>{u.organisation ?? '—'}</td>
+                  <td>{when(u.lastSignInAt)}</td>
+                  <td>{u.disabledAt ? `disabled ${when(u.disabledAt)}` : 'active'}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
       </section>
       <section className="section" aria-labelledby="tokens-title">
         <h2 id="tokens-title">API tokens</h2>

@@ -1,7 +1,7 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { listCampaigns } from '../../../lib/queries/campaigns';
-import { pageContext } from '../../../lib/web/context';
+import { pageContextFor } from '../../../lib/web/context';
 import CampaignList from '../../components/CampaignList';
 import PageHead from '../../components/PageHead';
 
@@ -9,7 +9,7 @@ export const dynamic = 'force-dynamic';
 export const metadata: Metadata = { title: 'Campaigns (admin)' };
 
 export default async function AdminCampaignsPage() {
-  const ctx = pageContext();
+  const ctx = await pageContextFor('register.import');
   const campaigns = await listCampaigns(ctx.db);
   return (
     <>

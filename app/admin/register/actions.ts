@@ -1,7 +1,9 @@
 'use server';
 
 import { revalidatePath } from 'next/cache';
+import { writeAudit } from '../../../lib/auth/audit';
 import { getSharedPool } from '../../../lib/db/sharedPool';
+import { guardAction } from '../../../lib/web/actionGuard';
 import { getRegisterSnapshot } from '../../../lib/queries/registerSnapshot';
 import { FleetFileError, readFleetFile } from '../../../lib/register/fleetFile';
 import { importFleet } from '../../../lib/register/importFleet';
@@ -13,8 +15,8 @@ import { getSharedPrisma } from '../../../lib/web/sharedPrisma';
  * file (fleet-v1, every error by path) and shows what would change; "import"
  * validates again, compares again with the register as it is now, and runs
  * the same idempotent import as `holdfast fleet import` (one transaction).
- * Until sign-in exists anyone who reaches the page can import; the
- * access-control issue limits it to fleet managers and admins.
+ * Both steps need a fleet manager or an admin with a valid CSRF token
+ * (lib/web/actionGuard.ts); an import is written to the audit log.
  */
 
 export type RegisterState =
@@ -38,6 +40,8 @@ async function readUpload(form: FormData): Promise<{ fileName: string; text: str
 }
 
 export async function registerAction(_prev: RegisterState, form: FormData): Promise<RegisterState> {
+  const gate = await guardAction(form, 'register.import');
+  if (!gate.ok) return { phase: 'invalid', fileName: '', errors: [gate.message] };
   const upload = await readUpload(form);
   if (typeof upload === 'string') return { phase: 'invalid', fileName: '', errors: [upload] };
   let file;
@@ -50,6 +54,13 @@ export async function registerAction(_prev: RegisterState, form: FormData): Prom
   const diff = registerDiff(await getRegisterSnapshot(getSharedPool()), file);
   if (form.get('intent') !== 'import') return { phase: 'preview', fileName: upload.fileName, fileText: upload.text, diff };
   await importFleet(getSharedPrisma(), file);
+  await writeAudit(getSharedPool(), {
+    actor: gate.principal,
+    action: 'register.import',
+    subject: upload.fileName,
+    ip: gate.ip,
+    detail: { vessels: file.vessels.length, campaigns: file.campaigns.length },
+  });
   revalidatePath('/', 'layout');
   return { phase: 'imported', fileName: upload.fileName, diff };
 }

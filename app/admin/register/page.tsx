@@ -1,11 +1,13 @@
 import type { Metadata } from 'next';
 import RegisterImport from '../../components/admin/RegisterImport';
 import PageHead from '../../components/PageHead';
+import { pageContextFor } from '../../../lib/web/context';
 
 export const dynamic = 'force-dynamic';
 export const metadata: Metadata = { title: 'Fleet register' };
 
-export default function RegisterPage() {
+export default async function RegisterPage() {
+  const ctx = await pageContextFor('register.import');
   return (
     <>
       <PageHead title="Fleet register" crumbs={{ href: '/admin', label: 'Admin', here: 'fleet register' }}>
@@ -18,7 +20,7 @@ export default function RegisterPage() {
           <code>holdfast fleet import FILE</code>.
         </p>
       </PageHead>
-      <RegisterImport />
+      <RegisterImport csrfToken={ctx.csrfToken} />
     </>
   );
 }

@@ -1,6 +1,6 @@
 import type { Metadata } from 'next';
 import { listFleetWebhooks } from '../../../lib/queries/webhooks';
-import { pageContext } from '../../../lib/web/context';
+import { pageContextFor } from '../../../lib/web/context';
 import PageHead from '../../components/PageHead';
 
 export const dynamic = 'force-dynamic';
@@ -17,7 +17,7 @@ function safeUrl(value: string): string {
 }
 
 export default async function WebhooksPage() {
-  const webhooks = await listFleetWebhooks(pageContext().db);
+  const webhooks = await listFleetWebhooks((await pageContextFor('webhook.manage')).db);
   return (
     <>
       <PageHead title="Webhooks" crumbs={{ href: '/admin', label: 'Admin', here: 'webhooks' }}>

@@ -6,6 +6,7 @@ import { longDay } from '../../../lib/charts/days';
 import { campaignBars } from '../../../lib/charts/campaignChart';
 import { CAUTION_REPORT } from '../../../lib/web/cautions';
 import { campaignPhase, campaignTable, coordinate } from '../../../lib/web/campaignTable';
+import { canSeeCampaign } from '../../../lib/auth/scope';
 import { pageContext } from '../../../lib/web/context';
 import ChartFrame from '../../components/charts/ChartFrame';
 import CampaignBarsChart from '../../components/charts/CampaignBarsChart';
@@ -22,7 +23,9 @@ export async function generateMetadata({ params }: Props): Promise<Metadata> {
 
 export default async function CampaignPage({ params }: Props) {
   const { key } = await params;
-  const ctx = pageContext();
+  const ctx = await pageContext();
+  // Another organisation's campaign is "not found", like an unknown key.
+  if (!canSeeCampaign(ctx.scope, key)) notFound();
   const today = ctx.today();
   const report = await getCampaignReport(ctx.db, key, today);
   if (!report) notFound();

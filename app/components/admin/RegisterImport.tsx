@@ -15,11 +15,12 @@ function Submit({ label, intent }: { label: string; intent: 'check' | 'import' }
 }
 
 /** Choose a file → see every error or what would change → import → see what changed. */
-export default function RegisterImport() {
+export default function RegisterImport({ csrfToken }: { csrfToken: string }) {
   const [state, action] = useActionState<RegisterState, FormData>(registerAction, { phase: 'idle' });
   return (
     <div className="register-import">
       <form action={action} className="panel upload" aria-label="Check a fleet register file" data-testid="register-upload">
+        <input type="hidden" name="csrf_token" value={csrfToken} />
         <label className="field">
           <span>Fleet register file (fleet-v1, JSON or YAML)</span>
           <input type="file" name="file" accept=".json,.yaml,.yml,application/json" required data-testid="register-file" />
@@ -46,6 +47,7 @@ export default function RegisterImport() {
           <h2 id="preview-title">What importing {state.fileName} would change</h2>
           <DiffView diff={state.diff} />
           <form action={action} aria-label="Import the checked file">
+            <input type="hidden" name="csrf_token" value={csrfToken} />
             <input type="hidden" name="fileText" value={state.fileText} />
             <input type="hidden" name="fileName" value={state.fileName} />
             <Submit label="Import these changes" intent="import" />

@@ -3,7 +3,7 @@
 import { useActionState, useState, type FormEvent } from 'react';
 import { useFormStatus } from 'react-dom';
 import { acknowledgeAction, closeAction, type FlagActionState } from '../../watchlist/actions';
-import { DEFAULT_ACTOR, MAX_NAME, MAX_NOTE } from '../../../lib/web/flagForm';
+import { MAX_NOTE } from '../../../lib/web/flagForm';
 
 /**
  * Acknowledge and close forms for one flag. Plain forms posting to server
@@ -40,23 +40,17 @@ function useDirty() {
   return { dirty, onInput, onReset: () => setDirty(false) };
 }
 
-/** Who and why: the name (recorded as typed until sign-in exists) and the required note. */
-function WhoAndWhy({ flagId, step, hint }: { flagId: string; step: string; hint: string }) {
+/** Why: the required note. Who is the signed-in user, recorded by the server. */
+function Why({ hint }: { hint: string }) {
   return (
-    <>
-      <label className="field">
-        <span>Your name</span>
-        <input name="by" id={`${step}-by-${flagId}`} maxLength={MAX_NAME} placeholder={DEFAULT_ACTOR} autoComplete="name" />
-      </label>
-      <label className="field field--wide">
-        <span>Note</span>
-        <textarea name="note" required maxLength={MAX_NOTE} rows={2} placeholder={hint} />
-      </label>
-    </>
+    <label className="field field--wide">
+      <span>Note</span>
+      <textarea name="note" required maxLength={MAX_NOTE} rows={2} placeholder={hint} />
+    </label>
   );
 }
 
-export default function FlagActions({ flagId, status }: { flagId: string; status: string }) {
+export default function FlagActions({ flagId, status, csrfToken }: { flagId: string; status: string; csrfToken: string }) {
   const [ackState, ackAction] = useActionState(acknowledgeAction, null);
   const [closeState, closeFormAction] = useActionState(closeAction, null);
   const ack = useDirty();
@@ -76,8 +70,9 @@ export default function FlagActions({ flagId, status }: { flagId: string; status
           data-testid="acknowledge-form"
         >
           <input type="hidden" name="id" value={flagId} />
+          <input type="hidden" name="csrf_token" value={csrfToken} />
           <h4>Acknowledge</h4>
-          <WhoAndWhy flagId={flagId} step="ack" hint="What was checked, who is on it" />
+          <Why hint="What was checked, who is on it" />
           <Submit label="Acknowledge" />
           <Outcome state={ackState} />
         </form>
@@ -92,6 +87,7 @@ export default function FlagActions({ flagId, status }: { flagId: string; status
         data-testid="close-form"
       >
         <input type="hidden" name="id" value={flagId} />
+          <input type="hidden" name="csrf_token" value={csrfToken} />
         <h4>Close</h4>
         <fieldset className="field field--choice">
           <legend>Reason</legend>
@@ -102,7 +98,7 @@ export default function FlagActions({ flagId, status }: { flagId: string; status
             <input type="radio" name="reason" value="dismissed" /> Dismissed
           </label>
         </fieldset>
-        <WhoAndWhy flagId={flagId} step="close" hint="What was done, or why it needs nothing" />
+        <Why hint="What was done, or why it needs nothing" />
         <Submit label="Close flag" />
         <Outcome state={closeState} />
       </form>

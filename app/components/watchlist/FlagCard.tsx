@@ -29,7 +29,18 @@ function Evidence({ evidence }: { evidence: Record<string, unknown> }) {
 }
 
 /** One flag: what, where, since when, why (explanation and statistic), its chart, its record, and what to do. */
-export default function FlagCard({ flag, chart, timeZone }: { flag: WatchlistFlag; chart: DailyChartData | null; timeZone: string }) {
+/** `csrfToken` is null for a user whose role may not act on flags: no forms then. */
+export default function FlagCard({
+  flag,
+  chart,
+  timeZone,
+  csrfToken,
+}: {
+  flag: WatchlistFlag;
+  chart: DailyChartData | null;
+  timeZone: string;
+  csrfToken: string | null;
+}) {
   const info = metricInfo(flag.metric);
   return (
     <article className={`flag-card flag-card--${flag.severity}`} id={`flag-${flag.id}`} aria-labelledby={`flag-${flag.id}-title`} data-testid="flag-card" data-flag-id={flag.id} data-status={flag.status}>
@@ -108,7 +119,7 @@ export default function FlagCard({ flag, chart, timeZone }: { flag: WatchlistFla
           ) : null}
         </ul>
       ) : null}
-      <FlagActions flagId={String(flag.id)} status={flag.status} />
+      {csrfToken ? <FlagActions flagId={String(flag.id)} status={flag.status} csrfToken={csrfToken} /> : null}
     </article>
   );
 }

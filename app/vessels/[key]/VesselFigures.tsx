@@ -1,4 +1,7 @@
 import { listFlags } from '../../../lib/api/queries/listFlags';
+import { visibleFlags } from '../../../lib/api/scoped';
+import { canSeeSpan } from '../../../lib/auth/scope';
+import { fleetDay } from '../../../lib/time/fleetDay';
 import { getRefDaily } from '../../../lib/api/queries/refDaily';
 import { getThrusterDaily } from '../../../lib/api/queries/thrusterDaily';
 import { getThrusterService } from '../../../lib/api/queries/thrusterService';
@@ -53,7 +56,7 @@ function Chart({ chart }: { chart: DailyChartData }) {
 
 export default async function VesselFigures({ ctx, profile, range, today }: { ctx: PageContext; profile: VesselProfile; range: PageRange; today: string }) {
   const key = profile.key;
-  const [daily, thrusterDays, refDays, service, hist, track, flags] = await Promise.all([
+  const [daily, thrusterDays, refDays, fullService, hist, fullTrack, allFlags] = await Promise.all([
     getVesselDaily(ctx.db, key, range),
     getThrusterDaily(ctx.db, key, range),
     getRefDaily(ctx.db, key, range),
@@ -63,9 +66,17 @@ export default async function VesselFigures({ ctx, profile, range, today }: { ct
     listFlags(ctx.db, { status: 'all', vesselKey: key }),
   ]);
   // The vessel was found a moment ago; null here means it left the register meanwhile.
-  if (!daily || !thrusterDays || !refDays || !service || !flags) {
+  if (!daily || !thrusterDays || !refDays || !fullService || !allFlags) {
     return <p className="notice">This vessel has just left the fleet register.</p>;
   }
+  // The range is inside the reader's scope already (visiblePageRange); what reaches outside it is cut here:
+  // lifetime thruster wear (every day since installation), a track sample that began before the range,
+  // flags whose window is not wholly visible.
+  const fleetWide = ctx.scope.kind === 'fleet';
+  const service = fleetWide ? fullService : { ...fullService, thrusters: [] };
+  const track =
+    fullTrack && (fleetWide || canSeeSpan(ctx.scope, key, fleetDay(fullTrack.from, ctx.timeZone), fleetDay(fullTrack.to, ctx.timeZone))) ? fullTrack : null;
+  const flags = visibleFlags(ctx.scope, allFlags);
 
   const c = { timeZone: ctx.timeZone, from: range.from, to: range.to };
   const summary = rangeSummary(daily.days, hist, profile.watchCirclesM);

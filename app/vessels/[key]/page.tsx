@@ -5,7 +5,10 @@ import { Suspense } from 'react';
 import { fleetTime } from '../../../lib/charts/days';
 import { formatAge } from '../../../lib/format/time';
 import { getVesselProfile } from '../../../lib/queries/vesselProfile';
+import { visibleInstant } from '../../../lib/api/scoped';
+import { canSeeCampaign, canSeeVessel } from '../../../lib/auth/scope';
 import { pageContext } from '../../../lib/web/context';
+import { visiblePageRange } from '../../../lib/web/scopedRange';
 import { parsePageRange } from '../../../lib/web/dayRangeParams';
 import type { RawSearchParams } from '../../../lib/web/searchParams';
 import { isStale } from '../../../lib/web/staleness';
@@ -31,12 +34,21 @@ export async function generateMetadata({ params }: Props): Promise<Metadata> {
  */
 export default async function VesselPage({ params, searchParams }: Props) {
   const { key } = await params;
-  const ctx = pageContext();
+  const ctx = await pageContext();
   const today = ctx.today();
-  const range = parsePageRange(await searchParams, today);
-  const profile = await getVesselProfile(ctx.db, key);
-  if (!profile) notFound();
+  // A vessel outside the reader's scope is "not found", like an unknown key: its existence is not told.
+  if (!canSeeVessel(ctx.scope, key)) notFound();
+  const asked = parsePageRange(await searchParams, today);
+  const found = await getVesselProfile(ctx.db, key);
+  if (!found) notFound();
   const now = new Date();
+  // A charterer sees the vessel only on its campaigns' days: the range, the last record and the campaigns are cut to them.
+  const range = visiblePageRange(ctx.scope, key, asked, today);
+  const profile = {
+    ...found,
+    lastSeen: visibleInstant(ctx.scope, key, found.lastSeen, ctx.timeZone),
+    campaigns: found.campaigns.filter((cmp) => canSeeCampaign(ctx.scope, cmp.key)),
+  };
   const stale = isStale(profile.lastSeen, now);
 
   return (
@@ -76,11 +88,20 @@ export default async function VesselPage({ params, searchParams }: Props) {
           </p>
       </PageHead>
 
-      <RangePicker basePath={`/vessels/${profile.key}`} range={range} today={today} timeZone={ctx.timeZone} />
-
-      <Suspense fallback={<Loading what="this vessel's figures" />}>
-        <VesselFigures ctx={ctx} profile={profile} range={range} today={today} />
-      </Suspense>
+      {range ? (
+        <>
+          <RangePicker basePath={`/vessels/${profile.key}`} range={range} today={today} timeZone={ctx.timeZone} />
+          <Suspense fallback={<Loading what="this vessel's figures" />}>
+            <VesselFigures ctx={ctx} profile={profile} range={range} today={today} />
+          </Suspense>
+        </>
+      ) : (
+        <section className="empty" data-testid="empty-range">
+          <p>
+            <strong>No day of your campaigns with this vessel has begun yet.</strong>
+          </p>
+        </section>
+      )}
     </>
   );
 }

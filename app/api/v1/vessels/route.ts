@@ -4,13 +4,14 @@ import { listVessels } from '../../../../lib/api/queries/listVessels';
 import { renderList } from '../../../../lib/api/render';
 import { apiRoute, type NoParams } from '../../../../lib/api/route';
 import { columnsOf } from '../../../../lib/api/schemas';
+import { scopedVessels } from '../../../../lib/api/queries/scopedVessels';
 
 // Fleet data is read on every request, never prerendered at build time.
 export const dynamic = 'force-dynamic';
 
-export const GET = apiRoute<NoParams>(async ({ search, ctx }) => {
+export const GET = apiRoute<NoParams>(async ({ search, ctx, scope }) => {
   const format = parseFormat(search);
-  const vessels = await listVessels(ctx.db);
+  const vessels = await scopedVessels(ctx, scope, await listVessels(ctx.db));
   return renderList(
     format,
     () => ({ vessels }),
