@@ -42,7 +42,7 @@ describe('sign-in and sessions', () => {
   });
   afterAll(async () => db?.drop());
 
-  const attempt = (who: string, password: string, now: Date, ip = '198.51.100.7') =>
+  const attempt = (who: string, password: string, now: Date, ip: string | null = '198.51.100.7') =>
     signIn(db.pool, { email: who, password, ip, userAgent: 'vitest' }, { now, scrypt: FAST });
 
   it('signs in with the right password: a session whose cookie value the store never sees, and an audit entry', async () => {
@@ -113,6 +113,15 @@ describe('sign-in and sessions', () => {
     }
     expect((await attempt(email('engineer'), PASSWORD, new Date(start.getTime() + 6000), ip)).kind).toBe('limited');
     expect((await attempt(email('engineer'), PASSWORD, new Date(start.getTime() + 6000), '2001:db8:1:3::1')).kind).toBe('ok');
+  });
+
+  it('does not count unknown addresses together: without a trusted proxy only the account limit applies', async () => {
+    const start = minutes(250);
+    // More failures than the address limit, each on its own account, none with a known address.
+    for (let i = 0; i <= LOGIN_RATE_LIMIT.perAddress; i++) {
+      expect(await attempt(email(`nowhere${i}`), 'not the password', new Date(start.getTime() + i * 100), null)).toEqual({ kind: 'invalid' });
+    }
+    expect((await attempt(email('engineer'), PASSWORD, new Date(start.getTime() + 6000), null)).kind).toBe('ok');
   });
 
   it('holds the account limit across web processes trying at the same moment', async () => {

@@ -1,5 +1,5 @@
 import type { Queryable } from './db';
-import { accountKey, decideRate, LOGIN_RATE_LIMIT, type RateDecision, type RateLimitPolicy } from './rateLimitPolicy';
+import { accountKey, decideRate, LOGIN_RATE_LIMIT, UNKNOWN_ADDRESS, type RateDecision, type RateLimitPolicy } from './rateLimitPolicy';
 
 /**
  * The database half of the sign-in rate limits (the rule is in
@@ -51,7 +51,10 @@ export async function beginLoginAttempt(
     policy.perAccount,
     policy.perAddress,
   ]);
-  const decision = decideRate({ account: rows[0]!.account, address: rows[0]!.address }, now, policy);
+  // An unknown address is no one's: counting all of them together would let anyone lock every
+  // sign-in out with 50 wrong passwords. Those attempts meet the per-account limit only.
+  const address = input.addressKey === UNKNOWN_ADDRESS ? [] : rows[0]!.address;
+  const decision = decideRate({ account: rows[0]!.account, address }, now, policy);
   if (!decision.allowed) await settleLoginAttempt(db, id, 'limited');
   return { id, decision };
 }

@@ -60,13 +60,16 @@ export function decideRate(
  * otherwise take a fresh address per attempt (common practice, no source).
  * An IPv4-mapped IPv6 address counts as the IPv4 address.
  */
+/** The key of every attempt whose address is not known; it is not limited as an address. */
+export const UNKNOWN_ADDRESS = 'unknown';
+
 export function addressKey(address: string | null | undefined): string {
   const text = (address ?? '').trim();
   const mapped = /^::ffff:(\d{1,3}(?:\.\d{1,3}){3})$/i.exec(text);
   if (mapped && isIP(mapped[1]!) === 4) return mapped[1]!;
   if (isIP(text) === 4) return text;
   if (isIP(text) === 6) return `${expandIpv6(text).slice(0, 4).join(':')}::/64`;
-  return 'unknown';
+  return UNKNOWN_ADDRESS;
 }
 
 function expandIpv6(address: string): string[] {

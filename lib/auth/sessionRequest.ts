@@ -22,6 +22,22 @@ export function requestOrigin(headers: HeaderReader, url?: string): string {
   return `${proto}://${host}`;
 }
 
+/**
+ * The client's address for the per-address sign-in limit, or null when it is
+ * not known. `X-Forwarded-For` is only believed with `trustProxy` (setting
+ * HOLDFAST_TRUST_PROXY): anyone reaching the server directly can write that
+ * header, and a forged address per attempt would escape the limit. Behind a
+ * trusted proxy the entry it appended, the last, is the one it saw; entries
+ * before it came from the client and prove nothing. Next.js does not give
+ * route handlers the socket's address, so without a trusted proxy the
+ * address is unknown and only the per-account limit applies.
+ */
+export function clientAddress(headers: HeaderReader, trustProxy: boolean): string | null {
+  if (!trustProxy) return null;
+  const entries = headers.get('x-forwarded-for')?.split(',').map((e) => e.trim()).filter(Boolean) ?? [];
+  return entries.at(-1) ?? headers.get('x-real-ip')?.trim() ?? null;
+}
+
 function firstValue(header: string | null): string | null {
   const value = header?.split(',')[0]?.trim();
   return value ? value : null;

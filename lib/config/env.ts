@@ -89,6 +89,9 @@ export const envSchema = z.object({
     .min(100, 'must be a whole number of rows from 100 to 10000000')
     .max(10_000_000, 'must be a whole number of rows from 100 to 10000000')
     .default(60_000),
+  // Believe X-Forwarded-For (the entry the proxy appended) for the per-address sign-in limit:
+  // on only behind a proxy that sets it, since a direct client can write the header itself.
+  HOLDFAST_TRUST_PROXY: onOff('off'),
   HOLDFAST_DEMO: onOff('on'),
   HOLDFAST_DEMO_INTERVAL_S: z.coerce
     .number({ error: 'must be a whole number of seconds from 1 to 3600' })

@@ -14,6 +14,7 @@ describe('loadConfig', () => {
       HOLDFAST_STORE: 'auto',
       HOLDFAST_EMBEDDED_MQTT_PORT: 1884,
       HOLDFAST_DEMO: true,
+      HOLDFAST_TRUST_PROXY: false,
       HOLDFAST_METRICS_PORT: 9464,
       LOG_FORMAT: 'auto',
     });

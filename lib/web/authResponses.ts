@@ -1,6 +1,7 @@
 import { checkCsrf, CSRF_FIELD } from '../auth/csrf';
 import { clearedSessionCookie, sessionCookie, setCookieHeader } from '../auth/sessionCookie';
-import { cookieValue, requestOrigin, secureCookieFor } from '../auth/sessionRequest';
+import { clientAddress, cookieValue, requestOrigin, secureCookieFor } from '../auth/sessionRequest';
+import { loadConfig } from '../config';
 import { sessionCookieName } from '../auth/sessionCookie';
 
 /**
@@ -33,7 +34,7 @@ export async function readAuthRequest(request: Request): Promise<AuthRequest> {
     origin,
     secure,
     sessionId: cookieValue(request.headers.get('cookie'), sessionCookieName(secure)),
-    ip: request.headers.get('x-forwarded-for')?.split(',')[0]?.trim() || request.headers.get('x-real-ip') || null,
+    ip: clientAddress(request.headers, loadConfig().HOLDFAST_TRUST_PROXY),
     userAgent: request.headers.get('user-agent'),
   };
 }

@@ -3,7 +3,8 @@ import { cache } from 'react';
 import type { Queryable } from '../auth/db';
 import { readSession, type SessionCheck } from '../auth/sessions';
 import { sessionCookieName } from '../auth/sessionCookie';
-import { requestOrigin, secureCookieFor } from '../auth/sessionRequest';
+import { clientAddress, requestOrigin, secureCookieFor } from '../auth/sessionRequest';
+import { loadConfig } from '../config';
 
 /**
  * The session of the request being rendered (a page, a server action, a
@@ -33,8 +34,7 @@ export const requestSession = cache(async (db: Queryable): Promise<RequestSessio
     sessionId,
     origin,
     secure,
-    // Behind a proxy its X-Forwarded-For names the client (docs/access-control.md, "Rate limits").
-    ip: h.get('x-forwarded-for')?.split(',')[0]?.trim() || h.get('x-real-ip') || null,
+    ip: clientAddress(h, loadConfig().HOLDFAST_TRUST_PROXY),
     userAgent: h.get('user-agent'),
     headers: new Headers(h),
   };
