@@ -1,6 +1,7 @@
 import type { Pool } from 'pg';
 import { inTransaction } from '../db/transaction';
 import { computeBatch, type VesselDay } from './daily/computeBatch';
+import { laneBatches } from './daily/laneBatches';
 
 /**
  * The daily job's entry points: every figure of metrics-v1 per vessel,
@@ -18,9 +19,10 @@ export const DEFAULT_CONCURRENCY = 2;
 
 /**
  * Recompute these vessel-days now: sorted by vessel then day and cut into
- * batches of BATCH_VESSEL_DAYS (one transaction each), `concurrency` batches
- * at a time. Sorting by vessel keeps concurrent batches on different vessels
- * (each batch locks its vessels) and their days in contiguous ranges.
+ * batches of at most BATCH_VESSEL_DAYS (one transaction each), `concurrency`
+ * batches at a time. The batch count is a multiple of `concurrency`, so the
+ * lanes finish together, and batches end between vessels where they can
+ * (each batch locks its vessels); laneBatches.ts has the rule.
  */
 export async function recomputeDays(
   pool: Pool,
@@ -29,9 +31,9 @@ export async function recomputeDays(
   onProgress?: (done: number, total: number) => void,
   concurrency = DEFAULT_CONCURRENCY,
 ): Promise<void> {
-  const sorted = [...days].sort((a, b) => a.vesselId - b.vesselId || (a.day < b.day ? -1 : a.day > b.day ? 1 : 0));
-  const batches: VesselDay[][] = [];
-  for (let i = 0; i < sorted.length; i += BATCH_VESSEL_DAYS) batches.push(sorted.slice(i, i + BATCH_VESSEL_DAYS));
+  const lanes = Math.max(1, concurrency);
+  const batches = laneBatches(days, lanes, BATCH_VESSEL_DAYS);
+  const total = batches.reduce((s, b) => s + b.length, 0);
   let next = 0;
   let done = 0;
   let failed = false;
@@ -45,10 +47,10 @@ export async function recomputeDays(
         throw error;
       }
       done += batch.length;
-      onProgress?.(done, sorted.length);
+      onProgress?.(done, total);
     }
   };
-  await Promise.all(Array.from({ length: Math.max(1, Math.min(concurrency, batches.length)) }, lane));
+  await Promise.all(Array.from({ length: Math.min(lanes, batches.length) }, lane));
 }
 
 /**

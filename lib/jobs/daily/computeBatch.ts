@@ -24,6 +24,32 @@ export interface VesselDay {
 /** Advisory-lock namespace of the daily job (first key of pg_advisory_xact_lock(int, int)). */
 export const DAILY_LOCK_NAMESPACE = 0x486f6c64; // "Hold"
 
+/**
+ * Transaction-local settings for the few large aggregates of a batch (the
+ * statements after them are small keyed lookups, which these suit as well):
+ * - each day range is read through its own bitmap scan of the primary key
+ *   (nested loop over the ranges, no hash or merge join, no plain index
+ *   scan): only the batch's rows are read, in heap order, and run-time
+ *   partition pruning skips the months outside the range. Left to itself the
+ *   planner hash-joins the ranges with a sequential scan of every partition
+ *   once a batch covers a fair share of a table, reading every vessel's rows
+ *   for each batch (bench:jobs: 5× the rows read); a plain index scan visits
+ *   the heap in key order, page after page again (twice the CPU of a bitmap
+ *   scan on ts_thruster);
+ * - grouping by hashing rather than sorting: the planner underestimates the
+ *   rows per range and sorts hundreds of thousands of wide rows by vessel,
+ *   day and unit (a third of the station and reference queries' CPU);
+ * - no parallel workers: recomputeDays already runs batches side by side,
+ *   and extra workers only add start-up and contention;
+ * - JIT compilation costs more than it saves on these statements;
+ * - the reference median sorts in memory.
+ */
+const AGGREGATE_SETTINGS_SQL = `
+  SELECT set_config('enable_hashjoin', 'off', true), set_config('enable_mergejoin', 'off', true),
+         set_config('enable_indexscan', 'off', true), set_config('enable_sort', 'off', true),
+         set_config('max_parallel_workers_per_gather', '0', true),
+         set_config('jit', 'off', true), set_config('work_mem', '64MB', true)`;
+
 const keyOf = (vesselId: number, day: string) => `${vesselId}/${day}`;
 
 function groupBy<T extends { vessel_id: number; day: string }>(rows: readonly T[]): Map<string, T[]> {
@@ -55,10 +81,7 @@ export async function computeBatch(client: PoolClient, batch: readonly VesselDay
   const distinctVessels = [...new Set(vesselIds)].sort((a, b) => a - b);
   await client.query('SELECT pg_advisory_xact_lock($1, v) FROM unnest($2::int[]) AS v ORDER BY v', [DAILY_LOCK_NAMESPACE, distinctVessels]);
 
-  // Settings for these few large aggregates only: JIT compilation costs more
-  // than it saves on them, and the reference median sorts in memory.
-  await client.query(`SET LOCAL jit = off`);
-  await client.query(`SET LOCAL work_mem = '64MB'`);
+  await client.query(AGGREGATE_SETTINGS_SQL);
   const ranges = dayRanges(work);
   const params = [ranges.map((r) => r.vesselId), ranges.map((r) => r.from), ranges.map((r) => r.to), timeZone];
   const station = await client.query<StationAggregate>(STATION_SQL, params);
