@@ -114,7 +114,18 @@ describe('telemetry → MQTT → ingest → daily job → API, against figures c
     return records;
   }
 
-  const storedStation = async () => (await db.pool.query(`SELECT count(*)::int AS n FROM ts_station`)).rows[0].n as number;
+  /**
+   * Records stored, every stream counted by its distinct (vessel, interval start): ts_thruster,
+   * ts_ref and ts_power hold a row per unit, system or switchboard section.
+   * Waiting on one stream alone let the job run before the others' rows had landed.
+   */
+  const storedRecords = async () =>
+    (
+      await db.pool.query(`SELECT (SELECT count(DISTINCT (vessel_id, t)) FROM ts_station) + (SELECT count(DISTINCT (vessel_id, t)) FROM ts_power)
+                                + (SELECT count(DISTINCT (vessel_id, t)) FROM ts_thruster)
+                                + (SELECT count(DISTINCT (vessel_id, t)) FROM ts_ref) AS n`)
+    ).rows[0].n as number;
+  let publishedRecords = 0;
 
   async function api(key: string) {
     const range = `from=${DAYS[0]}&to=${DAYS[1]}`;
@@ -165,8 +176,8 @@ describe('telemetry → MQTT → ingest → daily job → API, against figures c
 
   it('serves every daily figure as computed from the samples', async () => {
     const [a, b] = keys as [string, string];
-    const published = (await publish(a, (i) => !HELD_BACK(i))) + (await publish(b, () => true));
-    await waitFor(async () => (await storedStation()) === published / 4, 60_000, 'every published station record stored');
+    publishedRecords = (await publish(a, (i) => !HELD_BACK(i))) + (await publish(b, () => true));
+    await waitFor(async () => (await storedRecords()) === publishedRecords, 60_000, 'every published record stored');
     const { rows } = await db.pool.query<{ id: number }>('SELECT id FROM vessel');
     await recomputeDays(db.pool, rows.flatMap((r) => DAYS.map((day) => ({ vesselId: r.id, day }))), 'UTC');
 
@@ -184,10 +195,16 @@ describe('telemetry → MQTT → ingest → daily job → API, against figures c
     const a = keys[0]!;
     runner = await startJobRunner({ connectionString: db.url, pool: db.pool, timeZone: 'UTC', log: silentLogger });
     const before = (await api(a)).vessel.days[0];
-    await publish(a, HELD_BACK);
+    publishedRecords += await publish(a, HELD_BACK);
+    await waitFor(async () => (await storedRecords()) === publishedRecords, 60_000, 'every late record stored');
     const full = expected(a, DAYS[0]!);
-    // The dirty-day job runs every minute.
-    await waitFor(async () => Math.abs((await api(a)).vessel.days[0].dp_hours - full.dp_hours) < 1e-9, 150_000, 'the late day recomputed');
+    // The dirty-day job runs every minute; done when no day is left dirty and the figures moved.
+    const dirtyLeft = async () => (await db.pool.query('SELECT count(*)::int AS n FROM dirty_day')).rows[0].n as number;
+    await waitFor(
+      async () => (await dirtyLeft()) === 0 && Math.abs((await api(a)).vessel.days[0].dp_hours - full.dp_hours) < 1e-9,
+      150_000,
+      'the late day recomputed',
+    );
     const answer = await api(a);
     expect(answer.vessel.days[0].dp_hours).toBeGreaterThan(before.dp_hours);
     compare(answer, DAYS[0]!, full, `${a} (late data)`);
