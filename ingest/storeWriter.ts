@@ -82,32 +82,12 @@ const COPY_CHUNK_BYTES = 256 * 1024;
  * closed by the pool; a flush on a new one prepares it itself.
  */
 export async function prepareConnections(pool: Pool, count: number): Promise<void> {
-  const clients = await Promise.all(Array.from({ length: count }, () => checkOut(pool)));
+  const clients = await Promise.all(Array.from({ length: count }, () => pool.connect()));
   try {
     await Promise.all(clients.map((client) => ensureStaging(client)));
   } finally {
-    for (const client of clients) checkIn(client);
+    for (const client of clients) client.release();
   }
-}
-
-/**
- * pg emits 'error' on a checked-out client whose connection drops (the
- * database restarting) and, with no listener, that ends the process — the
- * pool listens only to idle clients. The query in progress fails with the
- * same error, and the flush retries it; the pool discards the broken client
- * at release. (Found by the fault suite, test/faults.test.ts.)
- */
-const connectionLost = () => {};
-
-async function checkOut(pool: Pool): Promise<PoolClient> {
-  const client = await pool.connect();
-  client.on('error', connectionLost);
-  return client;
-}
-
-function checkIn(client: PoolClient): void {
-  client.removeListener('error', connectionLost);
-  client.release();
 }
 
 async function copyRows(client: PoolClient, table: string, columns: readonly string[], texts: Buffer[]) {
@@ -225,7 +205,7 @@ export async function writeMessages(client: PoolClient, messages: PreparedMessag
 
 /** `writeMessages` in a transaction of its own, on a connection from `pool`. */
 export async function writeInTransaction(pool: Pool, messages: PreparedMessage[], fleetTimeZone: string): Promise<WriteResult> {
-  const client = await checkOut(pool);
+  const client = await pool.connect();
   try {
     await client.query('BEGIN');
     const result = await writeMessages(client, messages, fleetTimeZone);
@@ -238,6 +218,6 @@ export async function writeInTransaction(pool: Pool, messages: PreparedMessage[]
     forgetKnownPartitions();
     throw error;
   } finally {
-    checkIn(client);
+    client.release();
   }
 }

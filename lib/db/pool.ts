@@ -23,8 +23,13 @@ export function createPool(connectionString: string, options: PoolOptions | numb
     application_name: 'holdfast',
     ...(connectTimeoutMs ? { connectionTimeoutMillis: connectTimeoutMs } : {}),
   });
-  // An idle client losing its connection must not crash the process; the
-  // next query reconnects.
+  // A client losing its connection must not crash the process. pg emits
+  // 'error' on the pool for an idle client and on the client itself while
+  // it is checked out (the database restarting mid-query) — with no
+  // listener there, that ends the process. The query in progress fails with
+  // the same error for its caller to handle; the pool discards the broken
+  // client when it is released, and the next query reconnects.
   pool.on('error', () => {});
+  pool.on('connect', (client) => client.on('error', () => {}));
   return pool;
 }
