@@ -43,15 +43,22 @@ describe('flag evaluation on a synthetic fleet with known faults', () => {
     expect(score.weatherFalseFlags).toBe(0);
   });
 
-  // Issue 6 targets D ≤ 7; this data does not allow it and the test does not pretend otherwise.
-  // Three of its five faults only show in their daily figure a week or more after onset (limit
-  // events start 10 days in; heading RMS scatters by 25 % a day), as in the simulator
-  // (docs/flags.md "Evaluation"). Measured here: 18 days. The bound guards against regressions.
-  it('flags within three weeks of onset in the median (measured 18 days; issue target 7 not met)', () => {
+  // Issue 6 targets D ≤ 7 on the simulated fleet (bench/flagsEval.ts). This synthetic data cannot
+  // show it: three of its five faults show in their daily figure only a week or more after onset
+  // (limit events start 10 days in; heading RMS scatters by 25 % a day, p95_norm by 12 %).
+  // Measured here: 18 days, as before the fast path. The bound guards against regressions.
+  it('flags within three weeks of onset in the median (measured 18 days)', () => {
     expect(score.medianDetectDays).not.toBeNull();
     expect(score.medianDetectDays!).toBeLessThanOrEqual(20);
-    const delays = score.perEntry.map((p) => p.delayDays!);
-    // The faults that show at once (fouling 1 %/day, reference noise 8 %/day) within 10 days.
-    expect(delays.slice(0, 2).every((d) => d <= 10)).toBe(true);
+  });
+
+  // The fast path (CUSUM confirmed by Kendall, docs/flags.md step 7) flags the faults that show at
+  // once — fouling 1 %/day, reference noise 8 %/day — within a week; both slow methods alone took
+  // 9–10 days on this fleet.
+  it('flags the faults that show at once within 7 days', () => {
+    for (const p of score.perEntry.slice(0, 2)) {
+      expect(p.delayDays).not.toBeNull();
+      expect(p.delayDays!).toBeLessThanOrEqual(7);
+    }
   });
 });

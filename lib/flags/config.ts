@@ -90,6 +90,21 @@ export const flagSettingsSchema = z
       })
       .strict()
       .prefault({}),
+    cusum: z
+      .object({
+        /** Run the fast path (lib/flags/cusum.ts) beside Mann–Kendall + EWMA. */
+        enabled: z.boolean().default(true),
+        /** Reference value K, in baseline standard deviations. */
+        k: z.number().min(0).max(5).default(0.5),
+        /** Decision interval H, in baseline standard deviations. */
+        h: z.number().gt(0).max(50).default(8),
+        /** One-sided Mann–Kendall level the CUSUM's signal must be confirmed at. */
+        confirmAlpha: z.number().gt(0).lt(0.5).default(0.001),
+        /** Baseline days the fast path needs (its s must be well estimated). */
+        minBaselineDays: days(20),
+      })
+      .strict()
+      .prefault({}),
     /** An open flag whose condition has not held for this many evaluated days proposes closing. */
     closeAfterClearDays: days(7),
     series: seriesMap,

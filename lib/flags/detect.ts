@@ -1,4 +1,5 @@
 import type { FlagSettings, SeriesSettings } from './config';
+import { cusumChart, shiftedMean } from './cusum';
 import { ewmaChart, ewmaHalfWidth } from './ewma';
 import { mannKendall, type MannKendallResult } from './mannKendall';
 import { senSlope, type SenSlope } from './senSlope';
@@ -19,11 +20,15 @@ import { dayNumber, type DayValue } from './window';
  *   mean, s = baseline standard deviation, as in NIST/SEMATECH §6.3.2.4):
  *   the EWMA of the evaluated day more than L standard deviations beyond the
  *   target on the degrading side, and at least the minimum change from it.
- * A flag opens only when both find it (project's rule): with some 150 series
+ * A flag opens when both find it (project's rule): with some 150 series
  * judged every day, either method alone at its usual settings (α = 0.001,
  * L = 3) raises several false alarms a season on a healthy fleet, while
  * requiring both kept every simulated healthy series quiet (docs/flags.md
- * "Evaluation"). An open flag's condition holds while either still finds it.
+ * "Evaluation"). Both together are slow, though: Kendall's test over 30 days
+ * needs a fault to dominate a good part of the window. So a flag also opens
+ * on a faster first signal, the one-sided CUSUM (cusum.ts) confirmed by
+ * Kendall's test and measured against the minimum change (below). An open
+ * flag's condition holds while any of the three still finds it.
  * The minimum change keeps statistically clear but practically small drifts
  * (a 2 % rise on a series with almost no scatter) from opening flags.
  */
@@ -47,6 +52,27 @@ export interface EwmaEvidence {
   holds: boolean;
 }
 
+export interface CusumEvidence {
+  target: number;
+  sigma: number;
+  /** Reference value K = max(cusum.k·s, minimum change / 2) and decision interval H = cusum.h·s, in the series' unit. */
+  k: number;
+  h: number;
+  /** The one-sided sum on the evaluated day, and for how many days in a row it has been above 0. */
+  c: number;
+  run: number;
+  /** The mean since the run began, μ0 ± (K + C/N); null while C = 0. */
+  shiftedMean: number | null;
+  /** Sen's line through the run's days, read on the evaluated day: where the figure stands now; null while C = 0. */
+  now: number | null;
+  /** C > H. */
+  signal: boolean;
+  /** Kendall's one-sided p in the degrading direction, the confirmation the fast path asks for. */
+  trendP: number | null;
+  /** Signal, confirmed by Kendall's test at confirmAlpha, and `now` at least the minimum change from the target. */
+  holds: boolean;
+}
+
 export type Scale = 'log' | 'linear';
 
 export interface Detection {
@@ -65,7 +91,10 @@ export interface Detection {
   minChange: number;
   trend: TrendEvidence | null;
   ewma: EwmaEvidence | null;
-  /** Both methods find degradation: a flag opens. */
+  cusum: CusumEvidence | null;
+  /** Which rule opens: both slow methods, or the CUSUM confirmed by Kendall's test; null when neither. */
+  path: 'mann_kendall+ewma' | 'cusum+mann_kendall' | null;
+  /** Either rule finds degradation: a flag opens. */
   holds: boolean;
   /** At least one does: an open flag's condition still holds (it does not count as clear). */
   either: boolean;
@@ -91,6 +120,16 @@ function median(xs: readonly number[]): number {
   const s = [...xs].sort((a, b) => a - b);
   const h = s.length >> 1;
   return s.length % 2 ? s[h]! : (s[h - 1]! + s[h]!) / 2;
+}
+
+/**
+ * Sen's line through (t, x) read at the last t: slope = Sen's median pairwise slope, intercept
+ * = median of x − slope·t (Sen 1968; Conover's intercept, as in Helsel and Hirsch, Statistical
+ * Methods in Water Resources, 2002, §10.1.2 — from memory).
+ */
+export function lineEnd(t: readonly number[], x: readonly number[]): number {
+  const slope = senSlope(t, x, 0, 0.95)!.slope;
+  return median(x.map((y, i) => y - slope * t[i]!)) + slope * t.at(-1)!;
 }
 
 /**
@@ -137,6 +176,7 @@ export function detect(
   }
 
   let ewma: EwmaEvidence | null = null;
+  let cusum: CusumEvidence | null = null;
   // Without its own baseline, a series with a known healthy level (p95_norm: 1 by construction)
   // is charted against that level, with s from the window's moving ranges, MR̄/1.128 (the
   // individuals chart's estimate, NIST/SEMATECH e-Handbook §6.3.2.2), which a slow drift hardly
@@ -161,6 +201,30 @@ export function detect(
     const limit = level + sign * k * sd;
     const z = (last.ewma - level) / sd;
     ewma = { target: level, sigma, baselineDays: base.length, ewma: last.ewma, z, limit, holds: sign * z > k && sign * (last.ewma - level) >= minChange && minChange > 0 };
+
+    // The fast path: a one-sided CUSUM (Page 1954) of the same clipped days against the same
+    // target and s. Its reference value is half the shift worth finding, K = max(k·s, minimum
+    // change / 2) (the usual design: K is half the shift the chart is meant to find; Montgomery,
+    // Introduction to Statistical Quality Control, §9.1 — from memory), so a drift smaller than the minimum
+    // change hardly accumulates. A signal opens a flag when Kendall's test over the window points
+    // the same way at confirmAlpha (not one step back and forth), and the figure has moved at least
+    // the minimum change by now: Sen's line through the CUSUM's run (the days since it last stood at
+    // 0, at least 3), read on the evaluated day. The mean of the run would lag half the run behind a
+    // fault that grows. Only with a baseline of cusum.minBaselineDays, whose mean and s are good
+    // enough for a sum that accumulates every error in the target; or against a healthy level known
+    // by construction (p95_norm: 1), which has no such error.
+    const c = settings.cusum;
+    if (c.enabled && ((hasBaseline && base.length >= c.minBaselineDays) || known)) {
+      const side = sign > 0 ? 'upper' : 'lower';
+      const o = { side, target: level, k: Math.max(c.k * sigma, minChange / 2), h: c.h * sigma } as const;
+      const point = cusumChart(clipped, o).at(-1)!;
+      const moved = shiftedMean(point, o);
+      const trendP = trend ? (sign > 0 ? trend.mk.pIncreasing : trend.mk.pDecreasing) : null;
+      const confirmed = trendP !== null && trendP < c.confirmAlpha;
+      const now = point.n > 0 ? lineEnd(window.slice(-Math.max(point.n, 3)).map((d) => dayNumber(d.day)), clipped.slice(-Math.max(point.n, 3))) : null;
+      const big = now !== null && sign * (now - level) >= minChange && minChange > 0;
+      cusum = { target: level, sigma, k: o.k, h: o.h, c: point.c, run: point.n, shiftedMean: moved, now, signal: point.signal, trendP, holds: point.signal && confirmed && big };
+    }
   }
 
   return {
@@ -172,7 +236,9 @@ export function detect(
     minChange,
     trend,
     ewma,
-    holds: Boolean(trend?.holds && ewma?.holds),
-    either: Boolean(trend?.holds || ewma?.holds),
+    cusum,
+    path: trend?.holds && ewma?.holds ? 'mann_kendall+ewma' : cusum?.holds ? 'cusum+mann_kendall' : null,
+    holds: Boolean((trend?.holds && ewma?.holds) || cusum?.holds),
+    either: Boolean(trend?.holds || ewma?.holds || cusum?.holds),
   };
 }

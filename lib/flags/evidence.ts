@@ -6,7 +6,10 @@ export function evidenceOf(j: Judgement, settings: FlagSettings, direction: stri
   const d = j.detection;
   const t = d.trend;
   const e = d.ewma;
+  const c = d.cusum;
   return {
+    // Which rule opened: 'mann_kendall+ewma' (both) or 'cusum+mann_kendall' (the fast path); null when neither holds.
+    opened_by: d.path,
     direction,
     // 'log': level, slope, EWMA, limits and min_change below are natural logs of the figure.
     scale: d.scale,
@@ -40,6 +43,21 @@ export function evidenceOf(j: Judgement, settings: FlagSettings, direction: stri
       ewma: e.ewma,
       z: e.z,
       limit: e.limit,
+    },
+    // The fast path (lib/flags/cusum.ts): one-sided tabular CUSUM; k, h, c in the series' unit (scale above).
+    cusum: c && {
+      holds: c.holds,
+      target: c.target,
+      sigma: c.sigma,
+      k: c.k,
+      h: c.h,
+      c: c.c,
+      run_days: c.run,
+      shifted_mean: c.shiftedMean,
+      level_now: c.now,
+      signal: c.signal,
+      kendall_p: c.trendP,
+      confirm_alpha: settings.cusum.confirmAlpha,
     },
   };
 }

@@ -46,7 +46,22 @@ export function explain(subject: string, s: WatchedSeries, j: Judgement, setting
   const perDay = log ? '%/day' : 'a day';
   const parts: string[] = [];
   const t = d.trend;
-  if (t?.holds) {
+  const e = d.ewma;
+  // The fast path leads with the CUSUM; a slow method that also holds then 'agrees'.
+  const fast = d.path === 'cusum+mann_kendall';
+  const c = d.cusum;
+  if (fast && c && c.now !== null) {
+    const since = c.run === 1 ? 'today' : `${c.run} days ago`;
+    const relative = log ? Math.expm1(c.now - c.target) : Math.abs(c.target) > 1e-12 ? (c.now - c.target) / c.target : null;
+    const pct = relative === null ? '' : ` (${relative > 0 ? '+' : '−'}${num(Math.abs(100 * relative))} %)`;
+    const p = c.trendP === null ? '' : `; Mann–Kendall over ${settings.windowDays} days agrees, ${pValue(c.trendP)}`;
+    parts.push(
+      `${head} ${c.now > c.target ? 'up' : 'down'} to ${inUnit(c.now)} against a baseline of ${inUnit(c.target)}${pct}, ` +
+        `a shift that began about ${since}: CUSUM at ${num(c.c / c.sigma)} σ, past its decision interval of ${num(c.h / c.sigma)} σ ` +
+        `(Page's CUSUM, reference ${num(c.k / c.sigma)} σ, ${e?.baselineDays ?? 0} baseline days before the window)${p}.`,
+    );
+  }
+  if (t?.holds && !fast) {
     const way = t.sen.slope > 0 ? 'rising' : 'falling';
     const [slope] = rates(t.sen.slope);
     const [a, b] = rates(t.sen.lower, t.sen.upper).sort((x, y) => Number(x.replace('−', '-')) - Number(y.replace('−', '-')));
@@ -56,7 +71,6 @@ export function explain(subject: string, s: WatchedSeries, j: Judgement, setting
         `(Sen's slope, ${Math.round(t.sen.confidence * 100)} % interval ${a} to ${b} ${perDay}; ${d.n} days with data); Mann–Kendall ${pValue(p)}.`,
     );
   }
-  const e = d.ewma;
   if (e?.holds) {
     const side = e.ewma > e.target ? 'above' : 'below';
     const relative = log ? Math.expm1(e.ewma - e.target) : Math.abs(e.target) > 1e-12 ? (e.ewma - e.target) / e.target : null;
@@ -66,7 +80,7 @@ export function explain(subject: string, s: WatchedSeries, j: Judgement, setting
     const sentence =
       `EWMA ${inUnit(e.ewma)} against ${against}${pct}, ${num(Math.abs(e.z))} σ ${side} it; ` +
       `control limit ${inUnit(e.limit)} (EWMA λ = ${settings.ewma.lambda}, L = ${settings.ewma.k}, ${from}).`;
-    parts.push(t?.holds ? `The EWMA chart agrees: ${sentence}` : `${head} ${side} its baseline: ${sentence}`);
+    parts.push((t?.holds && !fast) || (fast && c?.now != null) ? `The EWMA chart agrees: ${sentence}` : `${head} ${side} its baseline: ${sentence}`);
   }
   if (j.weather) parts.push(`Judged with the wind's share removed (fitted on ${j.weather.baselineDays} baseline days).`);
   return parts.join(' ');

@@ -3,10 +3,12 @@ import type { Direction } from './series';
 
 /**
  * What a detection that opens a flag amounts to (project's rule,
- * docs/flags.md): both methods found degradation, so the flag names both
- * ('mann_kendall+ewma') and stores Kendall's Z (the EWMA figures are in the
- * evidence). Severity grows with the size of the change, the larger of Sen's
- * change over the window and the EWMA's distance from its target, against
+ * docs/flags.md): both slow methods found degradation, so the flag names both
+ * ('mann_kendall+ewma') and stores Kendall's Z; or the fast path did
+ * ('cusum+mann_kendall'), and it stores the CUSUM in baseline standard
+ * deviations (every figure is in the evidence). Severity grows with the size
+ * of the change, the largest of Sen's change over the window, the EWMA's
+ * distance from its target and the CUSUM run's line today, against
  * the series' minimum change:
  *   advisory  below 2 × the minimum change
  *   warning   from 2 ×
@@ -18,11 +20,14 @@ export type Severity = (typeof SEVERITIES)[number];
 export const WARNING_FACTOR = 2;
 export const ALARM_FACTOR = 4;
 export const METHOD = 'mann_kendall+ewma';
+/** The fast path (detect.ts): a CUSUM signal confirmed by Kendall's test. */
+export const FAST_METHOD = 'cusum+mann_kendall';
 
 export interface Verdict {
-  method: typeof METHOD;
+  method: typeof METHOD | typeof FAST_METHOD;
+  /** Kendall's Z for both slow methods; the CUSUM in baseline standard deviations (C/s) for the fast path. */
   statistic: number;
-  statisticName: 'kendall_z';
+  statisticName: 'kendall_z' | 'cusum_sd';
   severity: Severity;
   /** The larger change in the degrading direction the two methods measured (positive = worse), on the detection's scale. */
   change: number;
@@ -38,8 +43,13 @@ export function severityOf(change: number, minChange: number): Severity {
 export function verdictOf(d: Detection, direction: Direction): Verdict | null {
   if (!d.holds || !d.trend || !d.ewma) return null;
   const sign = direction === 'rising' ? 1 : -1;
-  const change = Math.max(sign * d.trend.change, sign * (d.ewma.ewma - d.ewma.target));
-  return { method: METHOD, statistic: d.trend.mk.z, statisticName: 'kendall_z', severity: severityOf(change, d.minChange), change };
+  const changes = [sign * d.trend.change, sign * (d.ewma.ewma - d.ewma.target)];
+  if (d.cusum?.now != null) changes.push(sign * (d.cusum.now - d.cusum.target));
+  const severity = severityOf(Math.max(...changes), d.minChange);
+  if (d.path === 'cusum+mann_kendall' && d.cusum) {
+    return { method: FAST_METHOD, statistic: d.cusum.c / d.cusum.sigma, statisticName: 'cusum_sd', severity, change: Math.max(...changes) };
+  }
+  return { method: METHOD, statistic: d.trend.mk.z, statisticName: 'kendall_z', severity, change: Math.max(...changes) };
 }
 
 /** The more severe of two severities (an open flag escalates, never calms down: a person closes it). */
