@@ -15,10 +15,7 @@
  * Target (issue 3): R ≥ 0.6 with Mosquitto; worker RSS < 250 MB.
  */
 import { spawn, type ChildProcess } from 'node:child_process';
-import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import net from 'node:net';
-import os from 'node:os';
-import path from 'node:path';
 import { Aedes } from 'aedes';
 import mqtt from 'mqtt';
 import { createPrisma } from '../lib/db/prisma';
@@ -28,7 +25,8 @@ import { topicFor } from '../lib/telemetry/topic';
 import { recordBatch } from '../ingest/recordBatch';
 import { writeMessages, type PreparedMessage } from '../ingest/storeWriter';
 import { Random } from '../seed/random';
-import { benchDatabase, cpuSeconds, memoryOf, reachable, type BenchDatabase } from './benchEnv';
+import { benchDatabase, cpuSeconds, memoryOf, type BenchDatabase } from './benchEnv';
+import { MOSQUITTO_BINARY, privateMosquitto, type PrivateBroker } from './privateMosquitto';
 import { benchFleet, benchInterval, ROWS_PER_INTERVAL, type IntervalRecords } from './ingestFleet';
 
 const VESSELS = Number(process.env.BENCH_VESSELS ?? 20);
@@ -265,25 +263,8 @@ async function embeddedBroker(): Promise<{ url: string; close(): Promise<void> }
  * A Mosquitto for the run, configured as the README advises for ingest (a deep per-client queue, so a flood or a worker restart never
  * makes the broker drop QoS 1 messages), on a free port.
  */
-async function ownMosquitto(): Promise<{ url: string; close(): Promise<void> } | undefined> {
-  const binary = ['/usr/sbin/mosquitto', '/usr/bin/mosquitto'].find((p) => existsSync(p));
-  if (!binary) return undefined;
-  const dir = mkdtempSync(path.join(os.tmpdir(), 'holdfast-bench-mqtt-'));
-  const port = await anyFreePort();
-  const conf = path.join(dir, 'mosquitto.conf');
-  writeFileSync(conf, [`listener ${port} 127.0.0.1`, 'allow_anonymous true', 'persistence false', 'max_queued_messages 1000000', 'max_inflight_messages 1000', ''].join('\n'));
-  const child = spawn(binary, ['-c', conf], { stdio: 'ignore' });
-  for (let i = 0; i < 50 && !(await reachable(port)); i++) await new Promise((r) => setTimeout(r, 100));
-  return {
-    url: `mqtt://127.0.0.1:${port}`,
-    close: async () => {
-      const exited = new Promise((r) => child.once('exit', r));
-      child.kill('SIGTERM');
-      await exited;
-      rmSync(dir, { recursive: true, force: true });
-    },
-  };
-}
+/** A Mosquitto of the benchmark's own, or undefined where it is not installed. */
+const ownMosquitto = async (): Promise<PrivateBroker | undefined> => (MOSQUITTO_BINARY ? privateMosquitto() : undefined);
 
 async function main() {
   console.log(`bench:ingest — ${VESSELS} vessels × ${HOURS} h of 1-minute statistics = ${EXPECTED_ROWS} rows (${Math.round(SINGLE_SHARE * 100)} % of hours as single-record messages)`);

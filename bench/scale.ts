@@ -23,7 +23,7 @@ import { topicFor } from '../lib/telemetry/topic';
 import { Random } from '../seed/random';
 import { benchDatabase, cpuSeconds } from './benchEnv';
 import { benchFleet, benchInterval, ROWS_PER_INTERVAL } from './ingestFleet';
-import { privateMosquitto, type PrivateBroker } from './scaleMosquitto';
+import { privateMosquitto, type PrivateBroker } from './privateMosquitto';
 import { startIngestProcess, type IngestProcess } from './scaleWorkers';
 
 const VESSELS = Number(process.env.BENCH_VESSELS ?? 20);

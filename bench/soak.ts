@@ -34,7 +34,7 @@ import { importFleet } from '../lib/register/importFleet';
 import { buildWebApp } from '../test/helpers/nextServer';
 import { benchDatabase, cpuSeconds } from './benchEnv';
 import { processTree } from './processCpu';
-import { privateMosquitto } from './scaleMosquitto';
+import { privateMosquitto } from './privateMosquitto';
 import { soakSummary, type RssSample } from './soakSummary';
 
 const { values } = parseArgs({

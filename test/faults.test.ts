@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { runFaults, type FaultRunResult } from './faults/faultRun';
-import { mosquittoBinary } from './faults/privateServices';
+import { MOSQUITTO_BINARY } from '../bench/privateMosquitto';
 import { faultVerdict } from './faults/verdict';
 
 /**
@@ -32,7 +32,7 @@ describe('ingest under faults (CI size)', () => {
   }, 300_000);
 
   // Visible when skipped: without Mosquitto the run falls back to aedes, which cannot be restarted without losing its queues.
-  it.skipIf(!mosquittoBinary())('restarted the broker once during the same run (needs Mosquitto)', () => {
+  it.skipIf(!MOSQUITTO_BINARY)('restarted the broker once during the same run (needs Mosquitto)', () => {
     expect(result, 'the fault run above did not finish').toBeDefined();
     expect(result.brokerRestartSkipped).toBeUndefined();
     expect(result.brokerRestarts).toBe(1);

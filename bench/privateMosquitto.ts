@@ -15,31 +15,40 @@ export interface PrivateBroker {
 }
 
 /**
- * A Mosquitto of our own on a free port, for the scale-out test, bench:scale
- * and the soak: the machine's broker is other people's, and is never
- * restarted or reconfigured. Configured as the README advises for ingest (a
- * deep per-client queue, so a flood never makes the broker drop QoS 1
- * messages). Shared subscriptions ($share/GROUP/…) need no setting: MQTT 5
- * brokers have them on. Throws when Mosquitto is not installed.
+ * The configuration of a Mosquitto of our own, as docs/telemetry.md "Broker
+ * settings" advises for ingest: a deep per-client queue and many messages in
+ * flight, so a flood never makes the broker drop QoS 1 messages. With
+ * `persistenceDir` it keeps sessions and queued messages over a restart (the
+ * fault suite); started as root it stays root, or it could not write there.
+ * Shared subscriptions ($share/GROUP/…) need no setting: MQTT 5 brokers have
+ * them on.
+ */
+export function mosquittoConf(options: { port: number; persistenceDir?: string; maxQueued?: number }): string {
+  const { port, persistenceDir, maxQueued = 1_000_000 } = options;
+  return [
+    `listener ${port} 127.0.0.1`,
+    'allow_anonymous true',
+    ...(persistenceDir ? ['persistence true', `persistence_location ${persistenceDir}/`] : ['persistence false']),
+    `max_queued_messages ${maxQueued}`,
+    'max_inflight_messages 1000',
+    'log_dest none',
+    ...(process.getuid?.() === 0 ? ['user root'] : []),
+    '',
+  ].join('\n');
+}
+
+/**
+ * A Mosquitto of our own on a free port (mosquittoConf), for bench:ingest,
+ * the scale-out test, bench:scale and the soak: the machine's broker is other
+ * people's, and is never restarted or reconfigured. Throws when Mosquitto is
+ * not installed.
  */
 export async function privateMosquitto(): Promise<PrivateBroker> {
   if (!MOSQUITTO_BINARY) throw new Error('mosquitto is not installed');
   const dir = mkdtempSync(path.join(os.tmpdir(), 'holdfast-scale-mqtt-'));
   const port = await anyFreePort();
   const conf = path.join(dir, 'mosquitto.conf');
-  writeFileSync(
-    conf,
-    [
-      `listener ${port} 127.0.0.1`,
-      'allow_anonymous true',
-      'persistence false',
-      'max_queued_messages 1000000',
-      'max_inflight_messages 1000',
-      // Started as root, Mosquitto would otherwise switch to the "mosquitto" user.
-      ...(process.getuid?.() === 0 ? ['user root'] : []),
-      '',
-    ].join('\n'),
-  );
+  writeFileSync(conf, mosquittoConf({ port }));
   const child = spawn(MOSQUITTO_BINARY, ['-c', conf], { stdio: 'ignore' });
   for (let i = 0; i < 50 && !(await reachable(port)); i++) await new Promise((r) => setTimeout(r, 100));
   if (!(await reachable(port))) {
