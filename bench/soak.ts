@@ -17,22 +17,19 @@
  *   soak_minutes=M worker_rss_growth_pct=X web_rss_growth_pct=Y
  */
 import { spawn, type ChildProcess } from 'node:child_process';
-import { randomBytes } from 'node:crypto';
 import { createWriteStream, mkdtempSync, readFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { parseArgs } from 'node:util';
 import type { Pool } from 'pg';
 import { startWeb, stopChild, waitForHttp } from '../cli/webServer';
-import { SESSION_COOKIE_LOCAL } from '../lib/auth/sessionCookie';
-import { createSession } from '../lib/auth/sessions';
-import { createUser } from '../lib/auth/users';
 import { createPrisma } from '../lib/db/prisma';
 import { anyFreePort } from '../lib/net/freePort';
 import { readFleetFile } from '../lib/register/fleetFile';
 import { importFleet } from '../lib/register/importFleet';
 import { buildWebApp } from '../test/helpers/nextServer';
 import { benchDatabase, cpuSeconds } from './benchEnv';
+import { benchSessionCookie } from './benchSession';
 import { processTree } from './processCpu';
 import { privateMosquitto } from './privateMosquitto';
 import { soakSummary, type RssSample } from './soakSummary';
@@ -67,17 +64,6 @@ function rssMb(pids: number[]): number {
     }
   }
   return kb / 1024;
-}
-
-/** A fleet manager's session cookie for the soak's page requests (cheap scrypt: a throw-away user). */
-async function signedInCookie(pool: Pool): Promise<string> {
-  const user = await createUser(
-    pool,
-    { email: 'soak@soak.holdfast.example', displayName: 'Soak', role: 'fleet_manager', password: randomBytes(18).toString('base64url') },
-    { actor: { kind: 'system' }, scrypt: { ln: 10, r: 8, p: 1 } },
-  );
-  const session = await createSession(pool, user.id);
-  return `${SESSION_COOKIE_LOCAL}=${session.sessionId}`;
 }
 
 /** Rows the worker has committed, from its own /metrics. */
@@ -134,7 +120,7 @@ async function main(): Promise<void> {
     const demo = spawnLogged('demo', ['node_modules/tsx/dist/cli.mjs', 'seed/cli.ts', 'live', '--speed', String(SPEED), '--start', startIso, '--url', broker.url, '--root', TOPIC_ROOT, '--truth', path.join(logDir, 'demo-ground-truth.json')], common);
 
     // Pages need a session: a fleet manager's, made in the store as sign-in would make it.
-    const cookie = await signedInCookie(db.pool);
+    const cookie = await benchSessionCookie(db.pool, 'soak');
     const pages = [`${webUrl}/`, `${webUrl}/vessels/${fleet.vessels[0]!.key}`];
     const pageStats = { ok: 0, redirected: 0, failed: 0, totalMs: 0 };
     const pageTimer = setInterval(() => {
