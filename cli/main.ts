@@ -23,6 +23,8 @@ Usage: holdfast <command> [options]     (or: npm run holdfast -- <command> …)
                           create a user; the password is typed or piped on stdin
   user list | user disable --email E
                           list users; disable one and end its sessions
+  campaign assign KEY --organisation ORG | campaign unassign KEY
+                          give a campaign to a charterer's organisation, or take it away
   vessel credentials KEY [--revoke]
                           new MQTT credentials for a vessel, printed once
   broker export --out DIR write Mosquitto password, ACL and config files
@@ -88,6 +90,8 @@ async function main(argv: string[]): Promise<void> {
       return (await import('./commands/token')).tokenCommand(config, log, rest, values);
     case 'user':
       return (await import('./commands/user')).userCommand(config, log, rest, values);
+    case 'campaign':
+      return (await import('./commands/campaign')).campaignCommand(config, log, rest, values);
     case 'vessel':
       return (await import('./commands/vessel')).vesselCommand(config, log, rest, values);
     case 'broker':

@@ -41,7 +41,7 @@ export async function userCommand(config: Config, log: Logger, args: string[], o
       console.log(`created user ${user.id} ${user.email} (${user.role}${org ? `, organisation ${org.key}${org.created ? ', new' : ''}` : ''}).`);
       if (org) {
         const { rows } = await store.pool.query<{ n: number }>('SELECT count(*)::int AS n FROM campaign WHERE organisation_id = $1', [org.id]);
-        if (rows[0]!.n === 0) console.log(`No campaign belongs to organisation ${org.key} yet, so this charterer sees nothing until one is assigned to it.`);
+        if (rows[0]!.n === 0) console.log(`No campaign belongs to organisation ${org.key} yet, so this charterer sees nothing until one is assigned to it: holdfast campaign assign KEY --organisation ${org.key}`);
       }
     });
   }
