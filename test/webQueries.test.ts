@@ -7,7 +7,7 @@ import { getThrusterWear } from '../lib/queries/thrusterWear';
 import { getTrackSample } from '../lib/queries/trackSample';
 import { getVesselProfile } from '../lib/queries/vesselProfile';
 import { getRangeHistogram } from '../lib/queries/vesselFootprint';
-import { getWatchlist, getWatchlistChoices } from '../lib/queries/watchlist';
+import { getWatchlist, getWatchlistChoices, type WatchlistFilter } from '../lib/queries/watchlist';
 import type { Scope } from '../lib/auth/scope';
 import { listFleetWebhooks } from '../lib/queries/webhooks';
 import { diffCounts, registerDiff } from '../lib/web/registerDiff';
@@ -150,6 +150,19 @@ describe('web queries', () => {
       vessels: [{ key: 'kelvick-skua', name: 'Kelvick Skua' }],
       metrics: ['efficiency_index', 'p95_norm', 'sd_m_median'],
     });
+  });
+
+  it('watchlist: a charterer reads that the shore team handled a flag, not who, nor their notes', async () => {
+    await db.pool.query(
+      `UPDATE flag SET closed_by = 'engineer@shore.example', closed_at = '2026-11-25T08:00:00Z', close_note = 'spoke to the chief engineer'
+        WHERE metric = 'sd_m_median' AND status = 'closed'`,
+    );
+    const closed = { statuses: ['closed'] as WatchlistFilter['statuses'], order: 'severity' as const };
+    const staff = (await getWatchlist(db.pool, closed, FLEET)).flags[0]!;
+    expect([staff.closedBy, staff.closeNote]).toEqual(['engineer@shore.example', 'spoke to the chief engineer']);
+    const charterer: Scope = { kind: 'campaigns', campaignKeys: new Set(['any']), windows: new Map([['kelvick-skua', [{ from: '2026-01-01', to: '2026-12-31' }]]]) };
+    const seen = (await getWatchlist(db.pool, closed, charterer)).flags[0]!;
+    expect([seen.id, seen.closedBy, seen.closeNote, seen.closeReason]).toEqual([staff.id, 'the shore team', null, 'dismissed']);
   });
 
   it('flag series: the daily figure of the flag’s subject, by a fixed map of metrics', async () => {

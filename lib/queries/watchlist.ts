@@ -91,7 +91,20 @@ const COUNT_SQL = `SELECT count(*)::int AS n FROM flag f JOIN vessel v ON v.id =
 export async function getWatchlist(db: Queryable, filter: WatchlistFilter, scope: Scope): Promise<{ flags: WatchlistFlag[]; total: number }> {
   const params = [filter.statuses, filter.vessel ?? null, filter.subjectKind ?? null, filter.metric ?? null, ...scopeParams(scope)];
   const [list, total] = await Promise.all([db.query<WatchlistFlag>(listSql(filter.order), params), db.query<{ n: number }>(COUNT_SQL, params)]);
-  return { flags: list.rows.map((r) => ({ ...r, id: Number(r.id) })), total: total.rows[0]!.n };
+  const shown = scope.kind === 'fleet' ? list.rows : list.rows.map(withoutShoreTeamDetail);
+  return { flags: shown.map((r) => ({ ...r, id: Number(r.id) })), total: total.rows[0]!.n };
+}
+
+/** Who on the shore team handled a flag, and their working notes, are not a charterer's to read. */
+export const SHORE_TEAM = 'the shore team';
+function withoutShoreTeamDetail(flag: WatchlistFlag): WatchlistFlag {
+  return {
+    ...flag,
+    acknowledgedBy: flag.acknowledgedBy === null ? null : SHORE_TEAM,
+    acknowledgeNote: null,
+    closedBy: flag.closedBy === null ? null : SHORE_TEAM,
+    closeNote: null,
+  };
 }
 
 /** The choices the filters offer: vessels and metrics that have a flag the reader may see. */

@@ -108,13 +108,14 @@ export default function FlagCard({
         <ul className="record" data-testid="flag-record">
           {flag.acknowledgedAt ? (
             <li>
-              Acknowledged by <strong>{flag.acknowledgedBy}</strong> on {fleetTime(flag.acknowledgedAt, timeZone)} ({timeZone}): “{flag.acknowledgeNote}”
+              Acknowledged by <strong>{flag.acknowledgedBy}</strong> on {fleetTime(flag.acknowledgedAt, timeZone)} ({timeZone})
+              {flag.acknowledgeNote === null ? '' : `: “${flag.acknowledgeNote}”`}
             </li>
           ) : null}
           {flag.closedAt ? (
             <li>
-              Closed as <strong>{flag.closeReason}</strong> by <strong>{flag.closedBy}</strong> on {fleetTime(flag.closedAt, timeZone)} ({timeZone}): “
-              {flag.closeNote}”
+              Closed as <strong>{flag.closeReason}</strong> by <strong>{flag.closedBy}</strong> on {fleetTime(flag.closedAt, timeZone)} ({timeZone})
+              {flag.closeNote === null ? '' : `: “${flag.closeNote}”`}
             </li>
           ) : null}
         </ul>
