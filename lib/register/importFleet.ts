@@ -1,4 +1,5 @@
 import type { PrismaClient } from '../db/prisma';
+import { comparableCampaign, comparableVessel } from './comparable';
 import type { FleetFile, FleetVessel } from './fleetFile';
 
 export interface ChangeList {
@@ -17,22 +18,6 @@ const emptyChanges = (): ChangeList => ({ created: [], updated: [], unchanged: [
 const dayOf = (d: Date) => d.toISOString().slice(0, 10);
 const asDate = (day: string) => new Date(`${day}T00:00:00Z`);
 const byId = <T extends { id: string }>(a: T, b: T) => a.id.localeCompare(b.id);
-
-/** The register's view of a vessel, in the file's shape, for comparison. */
-function vesselState(v: FleetVessel) {
-  return {
-    name: v.name,
-    type: v.type,
-    dp_class: v.dp_class,
-    watch_circles_m: v.watch_circles_m,
-    heading_limits_deg: v.heading_limits_deg,
-    thrusters: v.thrusters
-      .map((t) => ({ ...t, diameter_m: t.diameter_m ?? null }))
-      .sort(byId),
-    buses: [...v.buses].sort(byId),
-    refs: [...v.refs].sort(byId),
-  };
-}
 
 async function storedVessel(tx: Tx, key: string) {
   const v = await tx.vessel.findUnique({ where: { key }, include: { thrusters: true, buses: true, refSystems: true } });
@@ -132,7 +117,7 @@ export async function importFleet(prisma: PrismaClient, file: FleetFile): Promis
       const vesselIds = new Map<string, number>();
       for (const v of file.vessels) {
         const stored = await storedVessel(tx, v.key);
-        if (stored && same(stored.state, vesselState(v))) {
+        if (stored && same(stored.state, comparableVessel(v))) {
           summary.vessels.unchanged.push(v.key);
         } else {
           await writeVessel(tx, v, stored?.id);
@@ -142,14 +127,7 @@ export async function importFleet(prisma: PrismaClient, file: FleetFile): Promis
       }
 
       for (const c of file.campaigns) {
-        const wanted = {
-          charterer: c.charterer,
-          from: c.from,
-          to: c.to,
-          site: c.site,
-          watch_circles_m: c.watch_circles_m,
-          vessels: [...c.vessels].sort(),
-        };
+        const wanted = comparableCampaign(c);
         const stored = await tx.campaign.findUnique({ where: { key: c.key }, include: { vessels: { include: { vessel: true } } } });
         const current = stored && {
           charterer: stored.charterer,

@@ -1,3 +1,4 @@
+import { comparableCampaign, comparableVessel } from '../register/comparable';
 import type { FleetFile } from '../register/fleetFile';
 
 /**
@@ -68,30 +69,8 @@ function diffObject(before: Record<string, Plain>, after: Record<string, Plain>,
 
 type Stored = FleetFile;
 
-function vesselState(v: FleetFile['vessels'][number]): Record<string, Plain> {
-  const byId = <T extends { id: string }>(list: readonly T[]) => [...list].sort((x, y) => x.id.localeCompare(y.id));
-  return {
-    name: v.name,
-    type: v.type,
-    dp_class: v.dp_class,
-    watch_circles_m: v.watch_circles_m,
-    heading_limits_deg: v.heading_limits_deg,
-    thrusters: byId(v.thrusters).map((t) => ({ ...t, diameter_m: t.diameter_m ?? null })),
-    buses: byId(v.buses),
-    refs: byId(v.refs),
-  };
-}
-
-function campaignState(c: FleetFile['campaigns'][number]): Record<string, Plain> {
-  return {
-    charterer: c.charterer,
-    from: c.from,
-    to: c.to,
-    site: c.site,
-    watch_circles_m: c.watch_circles_m,
-    vessels: [...c.vessels].sort(),
-  };
-}
+const vesselState = (v: FleetFile['vessels'][number]): Record<string, Plain> => comparableVessel(v);
+const campaignState = (c: FleetFile['campaigns'][number]): Record<string, Plain> => comparableCampaign(c);
 
 function diffEntities<T extends { key: string }>(
   stored: readonly T[],
