@@ -30,14 +30,42 @@ function Outcome({ state }: { state: FlagActionState }) {
   );
 }
 
-function useDirty() {
+/**
+ * One flag form: the flag's id and the session's CSRF token as hidden
+ * fields, the form's own body, and the outcome of its last post. Marked
+ * data-dirty while a note is typed and not yet sent.
+ */
+function FlagForm(props: {
+  action: (payload: FormData) => void;
+  state: FlagActionState;
+  flagId: string;
+  csrfToken: string;
+  title: string;
+  testId: string;
+  children: React.ReactNode;
+}) {
   const [dirty, setDirty] = useState(false);
   const onInput = (e: FormEvent<HTMLFormElement>) => {
-    const form = e.currentTarget;
-    setDirty([...form.querySelectorAll('textarea')].some((t) => t.value.trim() !== ''));
+    setDirty([...e.currentTarget.querySelectorAll('textarea')].some((t) => t.value.trim() !== ''));
   };
-  // React resets a form after its action ran, which fires "reset": nothing is unsent then.
-  return { dirty, onInput, onReset: () => setDirty(false) };
+  return (
+    <form
+      action={props.action}
+      onInput={onInput}
+      // React resets a form after its action ran, which fires "reset": nothing is unsent then.
+      onReset={() => setDirty(false)}
+      data-dirty={dirty}
+      className="flag-form"
+      aria-label={`${props.title} flag ${props.flagId}`}
+      data-testid={props.testId}
+    >
+      <input type="hidden" name="id" value={props.flagId} />
+      <input type="hidden" name="csrf_token" value={props.csrfToken} />
+      <h4>{props.title}</h4>
+      {props.children}
+      <Outcome state={props.state} />
+    </form>
+  );
 }
 
 /** Why: the required note. Who is the signed-in user, recorded by the server. */
@@ -53,42 +81,17 @@ function Why({ hint }: { hint: string }) {
 export default function FlagActions({ flagId, status, csrfToken }: { flagId: string; status: string; csrfToken: string }) {
   const [ackState, ackAction] = useActionState(acknowledgeAction, null);
   const [closeState, closeFormAction] = useActionState(closeAction, null);
-  const ack = useDirty();
-  const close = useDirty();
   if (status === 'closed') return null;
 
   return (
     <div className="flag-actions">
       {status === 'open' ? (
-        <form
-          action={ackAction}
-          onInput={ack.onInput}
-          onReset={ack.onReset}
-          data-dirty={ack.dirty}
-          className="flag-form"
-          aria-label={`Acknowledge flag ${flagId}`}
-          data-testid="acknowledge-form"
-        >
-          <input type="hidden" name="id" value={flagId} />
-          <input type="hidden" name="csrf_token" value={csrfToken} />
-          <h4>Acknowledge</h4>
+        <FlagForm action={ackAction} state={ackState} flagId={flagId} csrfToken={csrfToken} title="Acknowledge" testId="acknowledge-form">
           <Why hint="What was checked, who is on it" />
           <Submit label="Acknowledge" />
-          <Outcome state={ackState} />
-        </form>
+        </FlagForm>
       ) : null}
-      <form
-        action={closeFormAction}
-        onInput={close.onInput}
-        onReset={close.onReset}
-        data-dirty={close.dirty}
-        className="flag-form"
-        aria-label={`Close flag ${flagId}`}
-        data-testid="close-form"
-      >
-        <input type="hidden" name="id" value={flagId} />
-          <input type="hidden" name="csrf_token" value={csrfToken} />
-        <h4>Close</h4>
+      <FlagForm action={closeFormAction} state={closeState} flagId={flagId} csrfToken={csrfToken} title="Close" testId="close-form">
         <fieldset className="field field--choice">
           <legend>Reason</legend>
           <label>
@@ -100,8 +103,7 @@ export default function FlagActions({ flagId, status, csrfToken }: { flagId: str
         </fieldset>
         <Why hint="What was done, or why it needs nothing" />
         <Submit label="Close flag" />
-        <Outcome state={closeState} />
-      </form>
+      </FlagForm>
     </div>
   );
 }
