@@ -67,18 +67,19 @@ describe('flag lifecycle', () => {
     const [flag, ...more] = await flags();
     expect(more).toEqual([]);
     expect(flag).toMatchObject({ subject: 'thruster:T3', metric: 'efficiency_index', status: 'open', clear_days: 0 });
-    // A fall of 1.5 %/day opens by the fast path (CUSUM confirmed by Kendall) before both slow methods agree.
-    expect(flag.method).toBe('cusum+mann_kendall');
+    // A fall of 1.5 %/day opens by the fast path (CUSUM confirmed by the rank-sum test) before both slow methods agree.
+    expect(flag.method).toBe('cusum+rank_sum');
     expect(flag.statistic_name).toBe('cusum_sd');
     expect(flag.statistic).toBeGreaterThan(flag.evidence.cusum.h / flag.evidence.cusum.sigma);
     expect(['advisory', 'warning', 'alarm']).toContain(flag.severity);
     expect(flag.opened_day > day(50) && flag.opened_day <= day(58)).toBe(true);
     expect(flag.window_to).toBe(flag.opened_day);
     expect(flag.window_from).toBe(addDays(flag.opened_day, -29));
-    expect(flag.explanation).toMatch(/^Thruster T3 efficiency down to [\d.]+ kN\/kW\^\(2\/3\) against a baseline of .*CUSUM at [\d.]+ σ, past its decision interval of 8 σ.*Mann–Kendall over 30 days agrees, p /);
-    expect(flag.evidence.opened_by).toBe('cusum+mann_kendall');
+    expect(flag.explanation).toMatch(/^Thruster T3 efficiency down to [\d.]+ kN\/kW\^\(2\/3\) against a baseline of .*CUSUM at [\d.]+ σ, past its decision interval of 8 σ.*its last \d+ days rank below the baseline's and the window's \d+ days before them \(Wilcoxon–Mann–Whitney, p /);
+    expect(flag.evidence.opened_by).toBe('cusum+rank_sum');
     expect(flag.evidence.cusum).toMatchObject({ holds: true, signal: true, confirm_alpha: 0.001 });
-    expect(flag.evidence.cusum.kendall_p).toBeLessThan(0.001);
+    expect(flag.evidence.cusum).toMatchObject({ confirm_test: 'rank_sum', confirm_days: expect.any(Number) });
+    expect(flag.evidence.cusum.confirm_p).toBeLessThan(0.001);
     expect(flag.evidence.mann_kendall.s).toEqual(expect.any(Number));
     expect(flag.evidence.ewma.lambda).toBe(0.2);
     expect(flag.last_evaluated_day).toBe(day(60));

@@ -28,12 +28,17 @@ const seriesSchema = z
      * coefficient of variation; sd/mean on the linear scale). null: no limit.
      */
     maxBaselineScatter: z.number().positive().nullable(),
+    /**
+     * Judge only the window's days whose mean wind the baseline has seen (at most its windiest day × (1 + weatherRangeMargin)):
+     * beyond that, the weather's effect is extrapolated, not measured (lib/flags/weather.ts).
+     */
+    baselineWeatherOnly: z.boolean(),
   })
   .partial()
   .strict();
 export type SeriesSettings = Required<z.infer<typeof seriesSchema>>;
 
-const GENERIC: Omit<SeriesSettings, 'weatherAdjust' | 'logScale'> = { enabled: true, minRelativeChange: 0.1, minAbsoluteChange: 0, maxBaselineScatter: null };
+const GENERIC: Omit<SeriesSettings, 'weatherAdjust' | 'logScale' | 'baselineWeatherOnly'> = { enabled: true, minRelativeChange: 0.1, minAbsoluteChange: 0, maxBaselineScatter: null };
 
 /**
  * Defaults per watched series. The thresholds are the project's choice,
@@ -60,7 +65,14 @@ const seriesMap = z
   .transform(
     (m) =>
       Object.fromEntries(
-        SERIES_KEYS.map((k) => [k, { ...GENERIC, weatherAdjust: WATCHED_SERIES[k].weatherAdjust, logScale: WATCHED_SERIES[k].logScale, ...SERIES_DEFAULTS[k], ...m[k] }]),
+        SERIES_KEYS.map((k) => [k, {
+          ...GENERIC,
+          weatherAdjust: WATCHED_SERIES[k].weatherAdjust,
+          logScale: WATCHED_SERIES[k].logScale,
+          baselineWeatherOnly: WATCHED_SERIES[k].windDependent,
+          ...SERIES_DEFAULTS[k],
+          ...m[k],
+        }]),
       ) as Record<SeriesKey, SeriesSettings>,
   );
 
@@ -105,6 +117,8 @@ export const flagSettingsSchema = z
       })
       .strict()
       .prefault({}),
+    /** How far above the baseline's windiest day a window day's mean wind may be and still be judged (series with baselineWeatherOnly). */
+    weatherRangeMargin: z.number().min(0).max(10).default(0.1),
     /** An open flag whose condition has not held for this many evaluated days proposes closing. */
     closeAfterClearDays: days(7),
     series: seriesMap,

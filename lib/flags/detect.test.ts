@@ -4,7 +4,7 @@ import { detect, lineEnd, minimumChange, movingRangeSigma } from './detect';
 import { addDays } from '../time/fleetDay';
 
 const S = DEFAULT_FLAG_SETTINGS;
-const series = { enabled: true, minRelativeChange: 0.05, minAbsoluteChange: 0, weatherAdjust: false, logScale: false, maxBaselineScatter: null };
+const series = { enabled: true, minRelativeChange: 0.05, minAbsoluteChange: 0, weatherAdjust: false, logScale: false, maxBaselineScatter: null, baselineWeatherOnly: false };
 const days = (from: string, values: number[]) => values.map((value, i) => ({ day: addDays(from, i), value }));
 /** Deterministic scatter of ±1 % (no source: a fixed pattern so the test cannot flake). */
 const wobble = (i: number) => 0.01 * Math.sin(i * 2.39996);
@@ -29,26 +29,27 @@ describe('detect (both methods must agree to open)', () => {
     expect(detect(window, baseline, 'rising', series, S, { from: '2026-05-01', to: '2026-05-30' })!.either).toBe(false);
   });
 
-  it('opens sooner by the fast path: a fall of 1 %/day over the last 8 days, CUSUM confirmed by Kendall', () => {
+  it('opens sooner by the fast path: a fall of 1 %/day over the last 8 days, CUSUM confirmed by the rank-sum test', () => {
     const window = days('2026-05-01', Array.from({ length: 30 }, (_, i) => 1.7 * (1 + wobble(i + 30)) * (1 - 0.01 * Math.max(0, i - 21))));
     const d = detect(window, baseline, 'falling', series, S, { from: '2026-05-01', to: '2026-05-30' })!;
     // Too early for both slow methods together…
     expect(d.trend!.holds && d.ewma!.holds).toBe(false);
-    // …but the CUSUM has passed H, Kendall points the same way, and Sen's line through the run stands ≥ 5 % down.
+    // …but the CUSUM has passed H, the run's days rank below the baseline's, and Sen's line through the run stands ≥ 5 % down.
     expect(d.cusum!.signal).toBe(true);
-    expect(d.cusum!.trendP!).toBeLessThan(S.cusum.confirmAlpha);
+    expect(d.cusum!.confirm!.test).toBe('rank_sum');
+    expect(d.cusum!.confirm!.p).toBeLessThan(S.cusum.confirmAlpha);
     expect(d.cusum!.now!).toBeLessThanOrEqual(d.level - d.minChange);
-    expect(d.path).toBe('cusum+mann_kendall');
+    expect(d.path).toBe('cusum+rank_sum');
     expect(d.holds).toBe(true);
     // The same days with the fast path switched off: nothing yet.
     expect(detect(window, baseline, 'falling', series, { ...S, cusum: { ...S.cusum, enabled: false } }, { from: '2026-05-01', to: '2026-05-30' })!.holds).toBe(false);
   });
 
-  it('does not open on one outlying day: the CUSUM passes H, Kendall does not confirm', () => {
+  it('does not open on one outlying day: the CUSUM passes H, the rank-sum test does not confirm', () => {
     const window = days('2026-05-01', Array.from({ length: 30 }, (_, i) => 1.7 * (1 + wobble(i + 30)) * (i === 29 ? 0.7 : 1)));
     const d = detect(window, baseline, 'falling', series, S, { from: '2026-05-01', to: '2026-05-30' })!;
     expect(d.cusum!.signal).toBe(true);
-    expect(d.cusum!.trendP!).toBeGreaterThan(S.cusum.confirmAlpha);
+    expect(d.cusum!.confirm!.p).toBeGreaterThan(S.cusum.confirmAlpha);
     expect(d.holds).toBe(false);
     // Nor does it hold an open flag: no method finds degradation in one day.
     expect(d.either).toBe(false);

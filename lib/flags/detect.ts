@@ -2,6 +2,7 @@ import type { FlagSettings, SeriesSettings } from './config';
 import { cusumChart, shiftedMean } from './cusum';
 import { ewmaChart, ewmaHalfWidth } from './ewma';
 import { mannKendall, type MannKendallResult } from './mannKendall';
+import { rankSum } from './rankSum';
 import { senSlope, type SenSlope } from './senSlope';
 import type { Direction } from './series';
 import { dayNumber, type DayValue } from './window';
@@ -67,13 +68,19 @@ export interface CusumEvidence {
   now: number | null;
   /** C > H. */
   signal: boolean;
-  /** Kendall's one-sided p in the degrading direction, the confirmation the fast path asks for. */
-  trendP: number | null;
-  /** Signal, confirmed by Kendall's test at confirmAlpha, and `now` at least the minimum change from the target. */
+  /**
+   * The confirmation the fast path asks for, one-sided in the degrading direction: the rank-sum tests of
+   * the run's `days` against the baseline's and against the window's `daysBefore` days before the run
+   * (the larger p), or, charted against a known healthy level without a baseline, Kendall's test over
+   * the window. Null while there is no signal.
+   */
+  confirm: { test: 'rank_sum' | 'mann_kendall'; p: number; days: number; daysBefore: number } | null;
+  /** Signal, confirmed at confirmAlpha, and `now` at least the minimum change from the target. */
   holds: boolean;
 }
 
 export type Scale = 'log' | 'linear';
+export type DetectionPath = 'mann_kendall+ewma' | 'cusum+rank_sum' | 'cusum+mann_kendall';
 
 export interface Detection {
   /**
@@ -92,8 +99,8 @@ export interface Detection {
   trend: TrendEvidence | null;
   ewma: EwmaEvidence | null;
   cusum: CusumEvidence | null;
-  /** Which rule opens: both slow methods, or the CUSUM confirmed by Kendall's test; null when neither. */
-  path: 'mann_kendall+ewma' | 'cusum+mann_kendall' | null;
+  /** Which rule opens: both slow methods, or the CUSUM confirmed (by the rank-sum or Kendall's test); null when neither. */
+  path: DetectionPath | null;
   /** Either rule finds degradation: a flag opens. */
   holds: boolean;
   /** At least one does: an open flag's condition still holds (it does not count as clear). */
@@ -205,25 +212,31 @@ export function detect(
     // The fast path: a one-sided CUSUM (Page 1954) of the same clipped days against the same
     // target and s. Its reference value is half the shift worth finding, K = max(k·s, minimum
     // change / 2) (the usual design: K is half the shift the chart is meant to find; Montgomery,
-    // Introduction to Statistical Quality Control, §9.1 — from memory), so a drift smaller than the minimum
-    // change hardly accumulates. A signal opens a flag when Kendall's test over the window points
-    // the same way at confirmAlpha (not one step back and forth), and the figure has moved at least
-    // the minimum change by now: Sen's line through the CUSUM's run (the days since it last stood at
-    // 0, at least 3), read on the evaluated day. The mean of the run would lag half the run behind a
-    // fault that grows. Only with a baseline of cusum.minBaselineDays, whose mean and s are good
-    // enough for a sum that accumulates every error in the target; or against a healthy level known
-    // by construction (p95_norm: 1), which has no such error.
+    // Introduction to Statistical Quality Control, §9.1 — from memory), so a drift smaller than the
+    // minimum change hardly accumulates. A signal opens a flag when it is confirmed at confirmAlpha,
+    // and the figure has moved at least the minimum change by now: Sen's line through the CUSUM's
+    // run (the days since it last stood at 0, at least 3), read on the evaluated day (the mean of the
+    // run would lag half the run behind a fault that grows). The confirmation asks whether the run's
+    // days rank above (below) both the baseline's days and the window's days before the run, by the
+    // Wilcoxon–Mann–Whitney test (rankSum.ts): by ranks, so one extreme day weighs no more than any
+    // other, and a shift that is plain from its first days is confirmed within days, where Kendall's
+    // test over a 30-day window needs the fault to fill a good part of the window first. Only with a
+    // baseline of cusum.minBaselineDays, whose mean and s are good enough for a sum that
+    // accumulates every error in the target. Against a healthy level known by construction
+    // (p95_norm: 1) without a baseline there is nothing to rank against: Kendall's test over the
+    // window confirms.
     const c = settings.cusum;
     if (c.enabled && ((hasBaseline && base.length >= c.minBaselineDays) || known)) {
       const side = sign > 0 ? 'upper' : 'lower';
       const o = { side, target: level, k: Math.max(c.k * sigma, minChange / 2), h: c.h * sigma } as const;
       const point = cusumChart(clipped, o).at(-1)!;
       const moved = shiftedMean(point, o);
-      const trendP = trend ? (sign > 0 ? trend.mk.pIncreasing : trend.mk.pDecreasing) : null;
-      const confirmed = trendP !== null && trendP < c.confirmAlpha;
-      const now = point.n > 0 ? lineEnd(window.slice(-Math.max(point.n, 3)).map((d) => dayNumber(d.day)), clipped.slice(-Math.max(point.n, 3))) : null;
+      const runDays = Math.max(point.n, 3);
+      const now = point.n > 0 ? lineEnd(window.slice(-runDays).map((d) => dayNumber(d.day)), clipped.slice(-runDays)) : null;
       const big = now !== null && sign * (now - level) >= minChange && minChange > 0;
-      cusum = { target: level, sigma, k: o.k, h: o.h, c: point.c, run: point.n, shiftedMean: moved, now, signal: point.signal, trendP, holds: point.signal && confirmed && big };
+      const confirm = point.signal ? confirmShift(values, runDays, hasBaseline ? base : null, trend, sign) : null;
+      const confirmed = confirm !== null && confirm.p < c.confirmAlpha;
+      cusum = { target: level, sigma, k: o.k, h: o.h, c: point.c, run: point.n, shiftedMean: moved, now, signal: point.signal, confirm, holds: point.signal && confirmed && big };
     }
   }
 
@@ -237,8 +250,29 @@ export function detect(
     trend,
     ewma,
     cusum,
-    path: trend?.holds && ewma?.holds ? 'mann_kendall+ewma' : cusum?.holds ? 'cusum+mann_kendall' : null,
+    path: trend?.holds && ewma?.holds ? 'mann_kendall+ewma' : cusum?.holds ? (cusum.confirm!.test === 'rank_sum' ? 'cusum+rank_sum' : 'cusum+mann_kendall') : null,
     holds: Boolean((trend?.holds && ewma?.holds) || cusum?.holds),
     either: Boolean(trend?.holds || ewma?.holds || cusum?.holds),
   };
+}
+
+/**
+ * The one-sided p that confirms a CUSUM signal (see detect). With a baseline: the run's days must
+ * rank beyond both the baseline's days and the window's days before the run (the larger p of the
+ * two rank-sum tests): a fault that began during the run sets its days apart from both, while a
+ * level that merely differs a little from the baseline's all through the window (chance, with 150
+ * series a day, or a weather fit a little off) builds a run as long as the window, which the few
+ * days before it cannot confirm. Without a baseline: Kendall's test over the window.
+ */
+function confirmShift(values: readonly number[], runDays: number, baseline: readonly number[] | null, trend: TrendEvidence | null, sign: number): CusumEvidence['confirm'] {
+  if (baseline) {
+    const run = values.slice(-runDays);
+    const before = values.slice(0, values.length - runDays);
+    const a = rankSum(run, baseline);
+    const b = rankSum(run, before);
+    if (!a || !b) return null;
+    const p = Math.max(sign > 0 ? a.pGreater : a.pLess, sign > 0 ? b.pGreater : b.pLess);
+    return { test: 'rank_sum', p, days: run.length, daysBefore: before.length };
+  }
+  return trend && { test: 'mann_kendall', p: sign > 0 ? trend.mk.pIncreasing : trend.mk.pDecreasing, days: trend.mk.n, daysBefore: 0 };
 }

@@ -8,7 +8,7 @@ export function evidenceOf(j: Judgement, settings: FlagSettings, direction: stri
   const e = d.ewma;
   const c = d.cusum;
   return {
-    // Which rule opened: 'mann_kendall+ewma' (both) or 'cusum+mann_kendall' (the fast path); null when neither holds.
+    // Which rule opened: 'mann_kendall+ewma' (both) or 'cusum+rank_sum' or 'cusum+mann_kendall' (the fast path); null when neither holds.
     opened_by: d.path,
     direction,
     // 'log': level, slope, EWMA, limits and min_change below are natural logs of the figure.
@@ -18,6 +18,8 @@ export function evidenceOf(j: Judgement, settings: FlagSettings, direction: stri
     min_change: d.minChange,
     // Weather adjustment (lib/flags/weather.ts): y − β1·(W² − mean W²), fitted on the baseline days.
     weather_adjustment: j.weather && { beta0: j.weather.beta0, beta1_per_w2: j.weather.beta1, mean_w2: j.weather.meanW2, baseline_days: j.weather.baselineDays },
+    // Days of the window with more wind than the baseline saw (lib/flags/weather.ts withinBaselineWeather) were left out.
+    weather_range: j.weatherRange && { max_wind_ms: j.weatherRange.maxWindMs, days_left_out: j.weatherRange.leftOut },
     mann_kendall: t && {
       holds: t.holds,
       s: t.mk.s,
@@ -56,7 +58,12 @@ export function evidenceOf(j: Judgement, settings: FlagSettings, direction: stri
       shifted_mean: c.shiftedMean,
       level_now: c.now,
       signal: c.signal,
-      kendall_p: c.trendP,
+      // The signal's confirmation: 'rank_sum' (the run's days against the baseline's and the window's before the run; the larger p)
+      // or 'mann_kendall' (over the window, against a known healthy level).
+      confirm_test: c.confirm?.test ?? null,
+      confirm_p: c.confirm?.p ?? null,
+      confirm_days: c.confirm?.days ?? null,
+      confirm_days_before: c.confirm?.daysBefore ?? null,
       confirm_alpha: settings.cusum.confirmAlpha,
     },
   };

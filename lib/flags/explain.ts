@@ -48,13 +48,18 @@ export function explain(subject: string, s: WatchedSeries, j: Judgement, setting
   const t = d.trend;
   const e = d.ewma;
   // The fast path leads with the CUSUM; a slow method that also holds then 'agrees'.
-  const fast = d.path === 'cusum+mann_kendall';
+  const fast = d.path === 'cusum+rank_sum' || d.path === 'cusum+mann_kendall';
   const c = d.cusum;
   if (fast && c && c.now !== null) {
     const since = c.run === 1 ? 'today' : `${c.run} days ago`;
     const relative = log ? Math.expm1(c.now - c.target) : Math.abs(c.target) > 1e-12 ? (c.now - c.target) / c.target : null;
     const pct = relative === null ? '' : ` (${relative > 0 ? '+' : '−'}${num(Math.abs(100 * relative))} %)`;
-    const p = c.trendP === null ? '' : `; Mann–Kendall over ${settings.windowDays} days agrees, ${pValue(c.trendP)}`;
+    const k = c.confirm;
+    const p = !k
+      ? ''
+      : k.test === 'rank_sum'
+        ? `; its last ${k.days} days rank ${c.now > c.target ? 'above' : 'below'} the baseline's and the window's ${k.daysBefore} days before them (Wilcoxon–Mann–Whitney, ${pValue(k.p)})`
+        : `; Mann–Kendall over ${settings.windowDays} days agrees, ${pValue(k.p)}`;
     parts.push(
       `${head} ${c.now > c.target ? 'up' : 'down'} to ${inUnit(c.now)} against a baseline of ${inUnit(c.target)}${pct}, ` +
         `a shift that began about ${since}: CUSUM at ${num(c.c / c.sigma)} σ, past its decision interval of ${num(c.h / c.sigma)} σ ` +
@@ -83,5 +88,9 @@ export function explain(subject: string, s: WatchedSeries, j: Judgement, setting
     parts.push((t?.holds && !fast) || (fast && c?.now != null) ? `The EWMA chart agrees: ${sentence}` : `${head} ${side} its baseline: ${sentence}`);
   }
   if (j.weather) parts.push(`Judged with the wind's share removed (fitted on ${j.weather.baselineDays} baseline days).`);
+  const r = j.weatherRange;
+  if (r && r.leftOut > 0) {
+    parts.push(`${r.leftOut} ${r.leftOut === 1 ? 'day' : 'days'} of the window with a mean wind above ${num(r.maxWindMs)} m/s, more than the baseline saw, not judged.`);
+  }
   return parts.join(' ');
 }

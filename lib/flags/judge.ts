@@ -2,7 +2,7 @@ import type { FlagSettings, SeriesSettings } from './config';
 import { detect, type Detection } from './detect';
 import { firstDayAfterClose } from './lifecycle';
 import type { WatchedSeries } from './series';
-import { adjustForWeather, fitWeather, type WeatherFit } from './weather';
+import { adjustForWeather, fitWeather, withinBaselineWeather, type WeatherFit, type WeatherRange } from './weather';
 import { rangesFor, within, type DayValue } from './window';
 
 /**
@@ -13,13 +13,16 @@ import { rangesFor, within, type DayValue } from './window';
  *
  * A weather-adjusted series is judged only once its baseline holds
  * minBaselineDays days with wind: without a fit there is no telling weather
- * from wear. Other series are judged from minDays in the window
+ * from wear. A series that moves with the wind is judged on the window's
+ * days whose wind the baseline has seen (weather.ts, withinBaselineWeather). Other series are judged from minDays in the window
  * (Mann–Kendall alone until the baseline exists for the EWMA chart).
  */
 
 export interface Judgement {
   detection: Detection;
   weather: WeatherFit | null;
+  /** The wind the window's days were held to, and how many were left out; null when the rule did not apply. */
+  weatherRange: WeatherRange | null;
 }
 
 export function judge(
@@ -52,9 +55,14 @@ export function judge(
     window = adjustForWeather(window, wind, weather);
     baseline = adjustForWeather(baseline, wind, weather);
   }
+  let weatherRange: WeatherRange | null = null;
+  if (series.baselineWeatherOnly) {
+    const comparable = withinBaselineWeather(window, baseline, wind, settings.weatherRangeMargin, settings.minBaselineDays);
+    if (comparable) ({ window, range: weatherRange } = comparable);
+  }
   const healthy = watched.healthyLevel === null ? null : scale === 'log' ? Math.log(watched.healthyLevel) : watched.healthyLevel;
   const detection = detect(window, baseline, watched.direction, series, settings, { from: windowFrom, to: day }, scale, healthy);
-  return detection && { detection, weather };
+  return detection && { detection, weather, weatherRange };
 }
 
 /** Day-to-day scatter of baseline values: the sd of their logs (≈ coefficient of variation), or sd / |mean| on the linear scale. */

@@ -26,6 +26,11 @@ export interface WatchedSeries {
    * healthy vessel. p95_norm needs none: the daily job already divides out the weather.
    */
   weatherAdjust: boolean;
+  /**
+   * Whether the figure moves with the wind on a healthy vessel (before any adjustment): the default of the
+   * series' `baselineWeatherOnly` setting. p95_norm does, in what its normalisation leaves over.
+   */
+  windDependent: boolean;
   /** Default of the series' `logScale` setting: judged as a logarithm (judge.ts); for positive scale figures, not counts. */
   logScale: boolean;
   /** The figure's level on a healthy unit by construction, if it has one (p95_norm: 1); the EWMA target while the series has no baseline of its own. */
@@ -33,10 +38,10 @@ export interface WatchedSeries {
 }
 
 export const WATCHED_SERIES: Record<SeriesKey, WatchedSeries> = {
-  p95_norm: { key: 'p95_norm', subject: 'vessel', direction: 'rising', label: 'weather-normalised position error p95', unit: '×', weatherAdjust: false, logScale: true, healthyLevel: 1 },
-  hdg_rms: { key: 'hdg_rms', subject: 'vessel', direction: 'rising', label: 'heading RMS', unit: '°', weatherAdjust: true, logScale: true, healthyLevel: null },
-  efficiency_index: { key: 'efficiency_index', subject: 'thruster', direction: 'falling', label: 'efficiency', unit: 'kN/kW^(2/3)', weatherAdjust: true, logScale: true, healthyLevel: null },
-  limit_events_per_dp_day: { key: 'limit_events_per_dp_day', subject: 'vessel', direction: 'rising', label: 'power-limit events per DP day', unit: '/DP day', weatherAdjust: true, logScale: false, healthyLevel: null },
-  sd_m_median: { key: 'sd_m_median', subject: 'ref', direction: 'rising', label: 'noise (median sd)', unit: 'm', weatherAdjust: false, logScale: true, healthyLevel: null },
-  rejections: { key: 'rejections', subject: 'ref', direction: 'rising', label: 'rejections', unit: '/day', weatherAdjust: false, logScale: false, healthyLevel: null },
+  p95_norm: { key: 'p95_norm', subject: 'vessel', direction: 'rising', label: 'weather-normalised position error p95', unit: '×', weatherAdjust: false, windDependent: true, logScale: true, healthyLevel: 1 },
+  hdg_rms: { key: 'hdg_rms', subject: 'vessel', direction: 'rising', label: 'heading RMS', unit: '°', weatherAdjust: true, windDependent: true, logScale: true, healthyLevel: null },
+  efficiency_index: { key: 'efficiency_index', subject: 'thruster', direction: 'falling', label: 'efficiency', unit: 'kN/kW^(2/3)', weatherAdjust: true, windDependent: true, logScale: true, healthyLevel: null },
+  limit_events_per_dp_day: { key: 'limit_events_per_dp_day', subject: 'vessel', direction: 'rising', label: 'power-limit events per DP day', unit: '/DP day', weatherAdjust: true, windDependent: true, logScale: false, healthyLevel: null },
+  sd_m_median: { key: 'sd_m_median', subject: 'ref', direction: 'rising', label: 'noise (median sd)', unit: 'm', weatherAdjust: false, windDependent: false, logScale: true, healthyLevel: null },
+  rejections: { key: 'rejections', subject: 'ref', direction: 'rising', label: 'rejections', unit: '/day', weatherAdjust: false, windDependent: false, logScale: false, healthyLevel: null },
 };

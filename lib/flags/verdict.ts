@@ -1,12 +1,13 @@
-import type { Detection } from './detect';
+import type { Detection, DetectionPath } from './detect';
 import type { Direction } from './series';
 
 /**
  * What a detection that opens a flag amounts to (project's rule,
  * docs/flags.md): both slow methods found degradation, so the flag names both
  * ('mann_kendall+ewma') and stores Kendall's Z; or the fast path did
- * ('cusum+mann_kendall'), and it stores the CUSUM in baseline standard
- * deviations (every figure is in the evidence). Severity grows with the size
+ * ('cusum+rank_sum', or 'cusum+mann_kendall' against a known healthy level),
+ * and it stores the CUSUM in baseline standard deviations (every figure is
+ * in the evidence). Severity grows with the size
  * of the change, the largest of Sen's change over the window, the EWMA's
  * distance from its target and the CUSUM run's line today, against
  * the series' minimum change:
@@ -20,11 +21,10 @@ export type Severity = (typeof SEVERITIES)[number];
 export const WARNING_FACTOR = 2;
 export const ALARM_FACTOR = 4;
 export const METHOD = 'mann_kendall+ewma';
-/** The fast path (detect.ts): a CUSUM signal confirmed by Kendall's test. */
-export const FAST_METHOD = 'cusum+mann_kendall';
 
 export interface Verdict {
-  method: typeof METHOD | typeof FAST_METHOD;
+  /** The detection's path: METHOD, or the fast path's 'cusum+…' (detect.ts). */
+  method: DetectionPath;
   /** Kendall's Z for both slow methods; the CUSUM in baseline standard deviations (C/s) for the fast path. */
   statistic: number;
   statisticName: 'kendall_z' | 'cusum_sd';
@@ -46,8 +46,8 @@ export function verdictOf(d: Detection, direction: Direction): Verdict | null {
   const changes = [sign * d.trend.change, sign * (d.ewma.ewma - d.ewma.target)];
   if (d.cusum?.now != null) changes.push(sign * (d.cusum.now - d.cusum.target));
   const severity = severityOf(Math.max(...changes), d.minChange);
-  if (d.path === 'cusum+mann_kendall' && d.cusum) {
-    return { method: FAST_METHOD, statistic: d.cusum.c / d.cusum.sigma, statisticName: 'cusum_sd', severity, change: Math.max(...changes) };
+  if (d.path && d.path !== METHOD && d.cusum) {
+    return { method: d.path, statistic: d.cusum.c / d.cusum.sigma, statisticName: 'cusum_sd', severity, change: Math.max(...changes) };
   }
   return { method: METHOD, statistic: d.trend.mk.z, statisticName: 'kendall_z', severity, change: Math.max(...changes) };
 }

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { addDays } from '../time/fleetDay';
-import { adjustForWeather, fitWeather } from './weather';
+import { adjustForWeather, fitWeather, withinBaselineWeather } from './weather';
 
 describe('weather adjustment (regression adjustment on W², Hawkins 1993)', () => {
   const days = Array.from({ length: 30 }, (_, i) => addDays('2026-05-01', i));
@@ -29,5 +29,41 @@ describe('weather adjustment (regression adjustment on W², Hawkins 1993)', () =
     const fit = fitWeather(values.slice(0, 20), wind, 10)!;
     const partial = new Map([...wind].slice(0, 25));
     expect(adjustForWeather(values, partial, fit)).toHaveLength(25);
+  });
+
+  describe('judging only weather the baseline has seen', () => {
+    const baseline = days.slice(0, 20).map((day) => ({ day, value: 1 }));
+    const window = days.slice(20).map((day) => ({ day, value: 1 }));
+    // Baseline winds 4 … 14 m/s (i·7 mod 11); the window's get 10, 14, 15.4, 15.5, 20 m/s and one has no wind figure.
+    const windows = new Map(wind);
+    [10, 14, 15.4, 15.5, 20].forEach((w, i) => windows.set(window[i]!.day, w));
+    windows.delete(window[5]!.day);
+
+    it("leaves out the days windier than the baseline's windiest day × (1 + margin), keeps those without wind", () => {
+      const r = withinBaselineWeather(window, baseline, windows, 0.1, 10)!;
+      expect(r.range.maxWindMs).toBeCloseTo(14 * 1.1, 9);
+      expect(r.range.leftOut).toBe(2);
+      expect(r.window.map((d) => d.day)).not.toContain(window[3]!.day);
+      expect(r.window.map((d) => d.day)).not.toContain(window[4]!.day);
+      expect(r.window.map((d) => d.day)).toContain(window[2]!.day);
+      expect(r.window.map((d) => d.day)).toContain(window[5]!.day);
+    });
+
+    it('knows no range without enough baseline days with wind', () => {
+      expect(withinBaselineWeather(window, baseline.slice(0, 9), windows, 0.1, 10)).toBeNull();
+    });
+
+    it('keeps a healthy figure that grows faster than W² in a blow from looking worn (constructed, no source)', () => {
+      // y = 0.1 + 0.0005·W³: the W² fit on calm days under-predicts a gale, so the adjusted gale days stand out.
+      const cubic = (w: number) => 0.1 + 0.0005 * w ** 3;
+      const calm = days.slice(0, 20).map((day) => ({ day, value: cubic(wind.get(day)!) }));
+      const gale = days.slice(20).map((day, i) => ({ day, value: cubic(20 + i) }));
+      const galeWind = new Map([...wind, ...gale.map((d, i) => [d.day, 20 + i] as const)]);
+      const fit = fitWeather(calm, galeWind, 10)!;
+      const adjusted = adjustForWeather(gale, galeWind, fit);
+      const level = calm.reduce((s, d) => s + d.value, 0) / calm.length;
+      expect(Math.min(...adjusted.map((d) => d.value))).toBeGreaterThan(level * 1.5);
+      expect(withinBaselineWeather(adjusted, calm, galeWind, 0.1, 10)!.window).toEqual([]);
+    });
   });
 });

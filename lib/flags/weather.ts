@@ -40,3 +40,34 @@ export function fitWeather(baseline: readonly DayValue[], wind: ReadonlyMap<stri
 export function adjustForWeather(values: readonly DayValue[], wind: ReadonlyMap<string, number>, fit: WeatherFit): DayValue[] {
   return values.filter((d) => wind.has(d.day)).map((d) => ({ day: d.day, value: d.value - fit.beta1 * (wind.get(d.day)! ** 2 - fit.meanW2) }));
 }
+
+/**
+ * The window's days in weather the baseline has seen: a mean wind at most
+ * the baseline's windiest day × (1 + margin). Beyond it the weather's share
+ * is extrapolated from calmer days (by the fit above, or by p95_norm's own
+ * normalisation), and a healthy vessel whose figure grows a little faster
+ * than W² in a blow would look like one that is wearing. So such days are
+ * left out, as gaps, until the baseline has seen such weather; this is the
+ * reference-conditions filter of ship performance monitoring (ISO 19030-2
+ * keeps only data taken in conditions its reference covers; from memory).
+ * Days without a wind figure stay: they are not known to be outside. Null
+ * when the baseline has fewer than `minDays` days with wind (no range known).
+ */
+export interface WeatherRange {
+  maxWindMs: number;
+  leftOut: number;
+}
+
+export function withinBaselineWeather(
+  window: readonly DayValue[],
+  baseline: readonly DayValue[],
+  wind: ReadonlyMap<string, number>,
+  margin: number,
+  minDays: number,
+): { window: DayValue[]; range: WeatherRange } | null {
+  const seen = baseline.filter((d) => wind.has(d.day)).map((d) => wind.get(d.day)!);
+  if (seen.length < minDays) return null;
+  const maxWindMs = Math.max(...seen) * (1 + margin);
+  const kept = window.filter((d) => !(wind.get(d.day)! > maxWindMs));
+  return { window: kept, range: { maxWindMs, leftOut: window.length - kept.length } };
+}

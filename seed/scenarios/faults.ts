@@ -6,7 +6,7 @@ import { daysSinceOnset, faultsOf, type ScenarioPlan } from './plan';
 /**
  * The simulator's knobs for one vessel of a scenario plan, as a function of
  * time: every fault grows linearly from its onset at the planned rate, up to
- * its limit. A live run started later sets the same knobs for the same
+ * its limit (a generator derating starts with a step). A live run started later sets the same knobs for the same
  * instant as the backfill did. Undefined when the vessel has no fault that
  * acts on the simulation (a link outage acts on publishing only).
  */
@@ -40,7 +40,8 @@ export function faultsFor(plan: ScenarioPlan, vessel: FleetVessel): Faults | und
         const b = vessel.buses.length ? index(vessel.buses, f.bus, 'bus') : 0;
         const g = b * GENS_PER_BUS + Math.min(f.generator - 1, GENS_PER_BUS - 1);
         setters.push((t, k) => {
-          k.genCapacity[g] = Math.max(1 - grown(t), f.minPct / 100);
+          if (daysSinceOnset(plan, f.onsetDay, t) < 0) return;
+          k.genCapacity[g] = Math.max(f.stepPct / 100 - grown(t), f.minPct / 100);
         });
         break;
       }

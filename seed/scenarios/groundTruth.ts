@@ -79,7 +79,7 @@ function entriesOf(plan: ScenarioPlan, f: PlannedFault): GroundTruthEntry[] {
     case 'reference_noise':
       return [{ ...base, subject: `ref:${f.ref}`, metric: 'sd_m_median', direction: 'rising', expect_flag: true, rate: `noise +${f.pctPerDay} % of nominal a day, to ×${f.maxFactor}` }];
     case 'generator_derate':
-      return [{ ...base, subject: 'vessel', metric: 'limit_events_per_dp_day', direction: 'rising', expect_flag: true, rate: `generator ${f.generator} of section ${f.bus}: −${f.pctPerDay} % of its rating a day, to ${f.minPct} %`, bus: f.bus, generator: f.generator }];
+      return [{ ...base, subject: 'vessel', metric: 'limit_events_per_dp_day', direction: 'rising', expect_flag: true, rate: `generator ${f.generator} of section ${f.bus}: down to ${f.stepPct} % of its rating at onset, then −${f.pctPerDay} % a day, to ${f.minPct} %`, bus: f.bus, generator: f.generator }];
     case 'controller_detune': {
       const rate = `DP controller gains −${f.pctPerDay} % a day, to ${f.minPct} %`;
       return [

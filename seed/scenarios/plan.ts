@@ -16,9 +16,15 @@ import { busOfThruster } from '../sim/thrusters';
  * - reference_noise: a position reference's noise (white and wander) grows by
  *   REF_NOISE_PCT_PER_DAY % of its nominal figure a day, up to ×REF_NOISE_MAX.
  * - generator_derate: the lead generator of the section that feeds the most
- *   DP thruster power (every unit but the main propellers) can deliver
- *   DERATE_PCT_PER_DAY % of its rating less every day, down to DERATE_MIN_PCT %:
- *   the power limit cuts in more and more often.
+ *   DP thruster power (every unit but the main propellers) loses power at
+ *   onset, as an engine does when a turbocharger or a fuel pump fails: from
+ *   then on it can deliver only DERATE_STEP_PCT % of its rating, and
+ *   DERATE_PCT_PER_DAY % less every day after, down to DERATE_MIN_PCT %. The
+ *   power limit cuts in from the first day on DP. (A derating that only grew
+ *   slowly from 100 % stayed invisible until the generator fell below the
+ *   section's peak DP demand, which on the demo's supply vessels is under half
+ *   of one generator's rating: 15–21 days of a fault that nothing on board,
+ *   and nothing in the telemetry, could show.)
  * - controller_detune: the DP controller's gains fall DETUNE_PCT_PER_DAY % a day
  *   down to DETUNE_MIN_PCT %: position and heading accuracy worsen in the same
  *   weather.
@@ -34,8 +40,9 @@ export const FOULING_PCT_PER_DAY = 1;
 export const FOULING_MAX_PCT = 40;
 export const REF_NOISE_PCT_PER_DAY = 8;
 export const REF_NOISE_MAX = 4;
-export const DERATE_PCT_PER_DAY = 2.5;
-export const DERATE_MIN_PCT = 40;
+export const DERATE_STEP_PCT = 40;
+export const DERATE_PCT_PER_DAY = 0.5;
+export const DERATE_MIN_PCT = 30;
 export const DETUNE_PCT_PER_DAY = 2.5;
 export const DETUNE_MIN_PCT = 25;
 export const WEATHER_PCT_PER_DAY = 1.5;
@@ -52,7 +59,7 @@ interface Onset {
 export type PlannedFault =
   | (Onset & { kind: 'thruster_fouling'; thruster: string; pctPerDay: number; maxPct: number })
   | (Onset & { kind: 'reference_noise'; ref: string; pctPerDay: number; maxFactor: number })
-  | (Onset & { kind: 'generator_derate'; bus: string; generator: number; pctPerDay: number; minPct: number })
+  | (Onset & { kind: 'generator_derate'; bus: string; generator: number; stepPct: number; pctPerDay: number; minPct: number })
   | (Onset & { kind: 'controller_detune'; pctPerDay: number; minPct: number })
   | (Onset & { kind: 'weather_only'; pctPerDay: number; maxPct: number })
   | { kind: 'link_outage'; vessel: string; fromMs: number; toMs: number; replayMs: number };
@@ -120,7 +127,7 @@ export function buildPlan(fleet: Pick<FleetFile, 'vessels'>, seed: number, fromM
         faults.push({ kind, vessel: v.key, onsetDay: onsetDay(0.35, 0.5), ref: one(v.refs).id, pctPerDay: REF_NOISE_PCT_PER_DAY, maxFactor: REF_NOISE_MAX });
         break;
       case 'generator_derate':
-        faults.push({ kind, vessel: v.key, onsetDay: onsetDay(0.35, 0.5), bus: busMostOnDp(v), generator: 1, pctPerDay: DERATE_PCT_PER_DAY, minPct: DERATE_MIN_PCT });
+        faults.push({ kind, vessel: v.key, onsetDay: onsetDay(0.35, 0.5), bus: busMostOnDp(v), generator: 1, stepPct: DERATE_STEP_PCT, pctPerDay: DERATE_PCT_PER_DAY, minPct: DERATE_MIN_PCT });
         break;
       case 'controller_detune':
         faults.push({ kind, vessel: v.key, onsetDay: onsetDay(0.35, 0.5), pctPerDay: DETUNE_PCT_PER_DAY, minPct: DETUNE_MIN_PCT });

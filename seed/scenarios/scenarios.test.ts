@@ -94,11 +94,11 @@ describe('seeded faults show in their metrics', () => {
     expect(sd(simulate(f, 30)) / sd(simulate(f, null))).toBeGreaterThan(2);
   });
 
-  it('generator derating: limit_events_per_dp_day rises from none', () => {
+  it('generator derating: limit_events_per_dp_day rises from none in the first days of the fault', () => {
     const f = fault('generator_derate');
     const perDpDay = (r: SimRecords[]) => limitEventsPerDpDay(powerFigures(r.map((x) => x.power)).limit_events ?? 0, dpHours(r.map((x) => x.station)))!;
     const healthy = perDpDay(simulate(f, null, 2));
-    const derated = perDpDay(simulate(f, 24, 2)); // at the floor of the derating
+    const derated = perDpDay(simulate(f, 0, 2)); // the step at onset bites at once
     expect(healthy).toBeLessThan(2);
     expect(derated).toBeGreaterThan(healthy + 10);
   });
