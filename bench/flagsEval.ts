@@ -140,6 +140,8 @@ async function main(): Promise<void> {
           (flag ? `flag ${flag.opened_day} (+${p.delayDays} d, ${flag.method}, ${flag.severity})\n      "${flag.explanation}"` : 'NOT FLAGGED'),
       );
     }
+    console.log(`\nflags on a consequence of a fault (right, not required): ${score.consequential.length}`);
+    for (const f of score.consequential as typeof flags) console.log(`  ${f.vessel} ${f.subject} ${f.metric} opened ${f.opened_day} (${f.method}): ${f.explanation}`);
     console.log(`\nfalse flags: ${score.falseFlags.length}`);
     for (const f of score.falseFlags as typeof flags) console.log(`  ${f.vessel} ${f.subject} ${f.metric} opened ${f.opened_day} (${f.method}): ${f.explanation}`);
     console.log(`\n${score.correct} of ${score.flags} flags correct; ${score.detected} of ${score.expected} faults flagged`);

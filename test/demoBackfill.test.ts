@@ -64,7 +64,9 @@ describe('demo backfill to NDJSON', () => {
     expect(truth.entries.map((e) => `${e.scenario}:${e.metric}:${e.direction}`).sort()).toEqual([
       'controller_detune:hdg_rms:rising',
       'controller_detune:p95_norm:rising',
+      'generator_derate:hdg_rms:rising',
       'generator_derate:limit_events_per_dp_day:rising',
+      'generator_derate:p95_norm:rising',
       'link_outage:null:none',
       'reference_noise:sd_m_median:rising',
       'thruster_fouling:efficiency_index:falling',

@@ -38,7 +38,7 @@ describe('detect (both methods must agree to open)', () => {
     expect(d.cusum!.signal).toBe(true);
     expect(d.cusum!.confirm!.test).toBe('rank_sum');
     expect(d.cusum!.confirm!.p).toBeLessThan(S.cusum.confirmAlpha);
-    expect(d.cusum!.now!).toBeLessThanOrEqual(d.level - d.minChange);
+    expect(d.cusum!.judgedNow!).toBeLessThanOrEqual(d.level - d.minChange);
     expect(d.path).toBe('cusum+rank_sum');
     expect(d.holds).toBe(true);
     // The same days with the fast path switched off: nothing yet.

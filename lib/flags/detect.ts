@@ -66,6 +66,8 @@ export interface CusumEvidence {
   shiftedMean: number | null;
   /** Sen's line through the run's days, read on the evaluated day: where the figure stands now; null while C = 0. */
   now: number | null;
+  /** The same line through the days as the chart took them (winsorised, see detect): what the minimum change is judged on. */
+  judgedNow: number | null;
   /** C > H. */
   signal: boolean;
   /**
@@ -232,11 +234,14 @@ export function detect(
       const point = cusumChart(clipped, o).at(-1)!;
       const moved = shiftedMean(point, o);
       const runDays = Math.max(point.n, 3);
-      const now = point.n > 0 ? lineEnd(window.slice(-runDays).map((d) => dayNumber(d.day)), clipped.slice(-runDays)) : null;
-      const big = now !== null && sign * (now - level) >= minChange && minChange > 0;
+      // Judged on the winsorised days (one wild day cannot make the change); shown, and sized, on the days as they were.
+      const runT = window.slice(-runDays).map((d) => dayNumber(d.day));
+      const now = point.n > 0 ? lineEnd(runT, values.slice(-runDays)) : null;
+      const judgedNow = point.n > 0 ? lineEnd(runT, clipped.slice(-runDays)) : null;
+      const big = judgedNow !== null && sign * (judgedNow - level) >= minChange && minChange > 0;
       const confirm = point.signal ? confirmShift(values, runDays, hasBaseline ? base : null, trend, sign) : null;
       const confirmed = confirm !== null && confirm.p < c.confirmAlpha;
-      cusum = { target: level, sigma, k: o.k, h: o.h, c: point.c, run: point.n, shiftedMean: moved, now, signal: point.signal, confirm, holds: point.signal && confirmed && big };
+      cusum = { target: level, sigma, k: o.k, h: o.h, c: point.c, run: point.n, shiftedMean: moved, now, judgedNow, signal: point.signal, confirm, holds: point.signal && confirmed && big };
     }
   }
 

@@ -57,6 +57,7 @@ export function evidenceOf(j: Judgement, settings: FlagSettings, direction: stri
       run_days: c.run,
       shifted_mean: c.shiftedMean,
       level_now: c.now,
+      level_now_winsorised: c.judgedNow,
       signal: c.signal,
       // The signal's confirmation: 'rank_sum' (the run's days against the baseline's and the window's before the run; the larger p)
       // or 'mann_kendall' (over the window, against a known healthy level).

@@ -53,7 +53,7 @@ export function explain(subject: string, s: WatchedSeries, j: Judgement, setting
   if (fast && c && c.now !== null) {
     const since = c.run === 1 ? 'today' : `${c.run} days ago`;
     const relative = log ? Math.expm1(c.now - c.target) : Math.abs(c.target) > 1e-12 ? (c.now - c.target) / c.target : null;
-    const pct = relative === null ? '' : ` (${relative > 0 ? '+' : '−'}${num(Math.abs(100 * relative))} %)`;
+    const pct = relativeChange(relative);
     const k = c.confirm;
     const p = !k
       ? ''
@@ -79,7 +79,7 @@ export function explain(subject: string, s: WatchedSeries, j: Judgement, setting
   if (e?.holds) {
     const side = e.ewma > e.target ? 'above' : 'below';
     const relative = log ? Math.expm1(e.ewma - e.target) : Math.abs(e.target) > 1e-12 ? (e.ewma - e.target) / e.target : null;
-    const pct = relative === null ? '' : ` (${relative > 0 ? '+' : '−'}${num(Math.abs(100 * relative))} %)`;
+    const pct = relativeChange(relative);
     const against = e.baselineDays > 0 ? `a baseline of ${inUnit(e.target)}` : `its healthy level ${inUnit(e.target)}`;
     const from = e.baselineDays > 0 ? `${e.baselineDays} baseline days before the window` : `no baseline yet, spread from day-to-day changes`;
     const sentence =
@@ -93,4 +93,11 @@ export function explain(subject: string, s: WatchedSeries, j: Judgement, setting
     parts.push(`${r.leftOut} ${r.leftOut === 1 ? 'day' : 'days'} of the window with a mean wind above ${num(r.maxWindMs)} m/s, more than the baseline saw, not judged.`);
   }
   return parts.join(' ');
+}
+
+/** " (+12.5 %)", or for a figure that has grown more than tenfold from a small baseline (limit events from 0.5 a day) " (×1440)". */
+function relativeChange(relative: number | null): string {
+  if (relative === null) return '';
+  if (relative >= 9) return ` (×${num(1 + relative)})`;
+  return ` (${relative > 0 ? '+' : '−'}${num(Math.abs(100 * relative))} %)`;
 }

@@ -23,6 +23,12 @@ export interface GroundTruthEntry {
   direction: Direction;
   /** Whether a trend flag should open for (vessel, subject, metric). */
   expect_flag: boolean;
+  /**
+   * The fault also moves this metric, through its effect on the vessel (a derated generator's power
+   * limit cuts thrust, so station keeping suffers): a flag on it after onset is right, but not required.
+   * Such entries have expect_flag false and count neither in recall nor in the detection delay.
+   */
+  consequence?: boolean;
   /** What grows and how fast, in words. */
   rate: string;
   /** Link outage: the window without link and when the backlog was sent (ISO 8601 UTC). */
@@ -78,8 +84,17 @@ function entriesOf(plan: ScenarioPlan, f: PlannedFault): GroundTruthEntry[] {
       return [{ ...base, subject: `thruster:${f.thruster}`, metric: 'efficiency_index', direction: 'falling', expect_flag: true, rate: `thrust per power^(2/3) −${f.pctPerDay} % of the clean figure a day, to −${f.maxPct} %` }];
     case 'reference_noise':
       return [{ ...base, subject: `ref:${f.ref}`, metric: 'sd_m_median', direction: 'rising', expect_flag: true, rate: `noise +${f.pctPerDay} % of nominal a day, to ×${f.maxFactor}` }];
-    case 'generator_derate':
-      return [{ ...base, subject: 'vessel', metric: 'limit_events_per_dp_day', direction: 'rising', expect_flag: true, rate: `generator ${f.generator} of section ${f.bus}: down to ${f.stepPct} % of its rating at onset, then −${f.pctPerDay} % a day, to ${f.minPct} %`, bus: f.bus, generator: f.generator }];
+    case 'generator_derate': {
+      const rate = `generator ${f.generator} of section ${f.bus}: down to ${f.stepPct} % of its rating at onset, then −${f.pctPerDay} % a day, to ${f.minPct} %`;
+      const section = { bus: f.bus, generator: f.generator };
+      // The power limit cuts thrust, so position and heading are held less well (scenarios.test.ts measures it).
+      const consequence = { ...base, subject: 'vessel', direction: 'rising', expect_flag: false, consequence: true, rate: `${rate}; the power limit cuts thrust`, ...section } as const;
+      return [
+        { ...base, subject: 'vessel', metric: 'limit_events_per_dp_day', direction: 'rising', expect_flag: true, rate, ...section },
+        { ...consequence, metric: 'p95_norm' },
+        { ...consequence, metric: 'hdg_rms' },
+      ];
+    }
     case 'controller_detune': {
       const rate = `DP controller gains −${f.pctPerDay} % a day, to ${f.minPct} %`;
       return [

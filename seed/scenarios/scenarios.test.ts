@@ -53,11 +53,14 @@ describe('scenario plan', () => {
       expect(e.subject).toMatch(/^(vessel|thruster:[A-Za-z0-9_-]+|ref:[A-Za-z0-9_-]+)$/);
       if (e.metric !== null) expect(METRICS).toContain(e.metric);
       expect(e.onset_date).toBe(new Date(FROM + e.onset_day * DAY_MS).toISOString().slice(0, 10));
-      expect(e.expect_flag).toBe(e.direction !== 'none');
+      // A consequence of a fault moves its metric too, but is not required to flag.
+      expect(e.expect_flag).toBe(e.direction !== 'none' && !e.consequence);
     }
     const control = truth.entries.find((e) => e.scenario === 'weather_only')!;
     expect(control).toMatchObject({ metric: 'p95_norm', direction: 'none', expect_flag: false });
     expect(truth.entries.find((e) => e.scenario === 'link_outage')!.outage).toBeDefined();
+    const consequences = truth.entries.filter((e) => e.consequence).map((e) => `${e.scenario}:${e.metric}:${e.direction}`);
+    expect(consequences.sort()).toEqual(['generator_derate:hdg_rms:rising', 'generator_derate:p95_norm:rising']);
   });
 });
 
@@ -101,6 +104,18 @@ describe('seeded faults show in their metrics', () => {
     const derated = perDpDay(simulate(f, 0, 2)); // the step at onset bites at once
     expect(healthy).toBeLessThan(2);
     expect(derated).toBeGreaterThan(healthy + 10);
+  });
+
+  it('generator derating: station keeping suffers too, as the power limit cuts thrust (p95 and heading RMS, same weather)', () => {
+    const f = fault('generator_derate');
+    // Both 30 days after onset, in the same weather.
+    const healthy = simulate(f, null, 2);
+    const derated = simulate(f, 30, 2);
+    const figures = (r: SimRecords[]) => stationDayFigures(r.map((x) => x.station));
+    const ratio = (pick: (d: ReturnType<typeof stationDayFigures>) => number | null | undefined) => pick(figures(derated))! / pick(figures(healthy))!;
+    // Measured: p95 ×2.5, heading RMS ×5.1. The ground truth lists both as the derating's consequences.
+    expect(ratio((d) => d.p95?.m)).toBeGreaterThan(1.5);
+    expect(ratio((d) => d.hdg_rms)).toBeGreaterThan(1.5);
   });
 
   it('controller detuning: p95 and heading RMS rise in the same weather', () => {

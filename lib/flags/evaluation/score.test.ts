@@ -34,4 +34,26 @@ describe('scoreFlags', () => {
     expect([s.precision, s.recall, s.medianDetectDays]).toEqual([1, 0, null]);
     expect(medianOf([3, 1, 2, 10])).toBe(2.5);
   });
+
+  it('counts a flag on a consequence of a fault as right after onset, without requiring it', () => {
+    const withConsequence: TruthEntry[] = [
+      ...truth,
+      { scenario: 'generator_derate', vessel: 'e', subject: 'vessel', metric: 'limit_events_per_dp_day', onset_date: '2026-05-10', expect_flag: true },
+      { scenario: 'generator_derate', vessel: 'e', subject: 'vessel', metric: 'p95_norm', onset_date: '2026-05-10', expect_flag: false, consequence: true },
+    ];
+    const s = scoreFlags(withConsequence, [
+      { vessel: 'e', subject: 'vessel', metric: 'limit_events_per_dp_day', opened_day: '2026-05-12' },
+      { vessel: 'e', subject: 'vessel', metric: 'p95_norm', opened_day: '2026-05-20' },
+      { vessel: 'e', subject: 'vessel', metric: 'p95_norm', opened_day: '2026-05-01' },
+      { vessel: 'e', subject: 'vessel', metric: 'hdg_rms', opened_day: '2026-05-20' },
+    ]);
+    // Right: the limit events and p95_norm after onset; false: p95_norm before onset, and hdg_rms (not listed).
+    expect(s.correct).toBe(2);
+    expect(s.consequential).toEqual([{ vessel: 'e', subject: 'vessel', metric: 'p95_norm', opened_day: '2026-05-20' }]);
+    expect(s.falseFlags.map((f) => `${f.metric} ${f.opened_day}`)).toEqual(['p95_norm 2026-05-01', 'hdg_rms 2026-05-20']);
+    // Not required: recall and the delay are over the expected entries only.
+    expect(s.expected).toBe(3);
+    expect(s.detected).toBe(1);
+    expect(s.medianDetectDays).toBe(2);
+  });
 });
