@@ -22,7 +22,9 @@
  * cores), --ndjson FILE (replay a file from `npm run demo -- backfill --out`
  * made with the same --days/--seed/--from instead of simulating), --keep
  * (keep the database, named on the first line), --reuse NAME (skip steps
- * 2–3 on a kept database; flags are cleared first), --settings FILE.json.
+ * 2–3 on a kept database, migrated first; flags are cleared first),
+ * --recompute (with --reuse: step 3 again, for daily figures that changed),
+ * --settings FILE.json.
  * EVAL_DATABASE_URL chooses the PostgreSQL server (default 127.0.0.1:5432).
  *
  * A full run (12 vessels × 120 days) took 34 minutes on this 2-core machine,
@@ -64,6 +66,7 @@ const { values: args } = parseArgs({
     ndjson: { type: 'string' },
     keep: { type: 'boolean', default: false },
     reuse: { type: 'string' },
+    recompute: { type: 'boolean', default: false },
     settings: { type: 'string' },
   },
 });
@@ -86,7 +89,13 @@ async function loadStore(fleet: ReturnType<typeof readFleetFile>, plan: ReturnTy
   }
   await sink.close();
   console.log(`history stored in ${seconds(started)} s (${sink.messages} messages)`);
+  await computeDaily(store, plan);
+  return store;
+}
 
+/** Step 3: the daily figures of every vessel-day of the history. */
+async function computeDaily(store: EvalStore, plan: ReturnType<typeof buildPlan>): Promise<void> {
+  const toMs = plan.fromMs + plan.days * DAY_MS;
   const computeStart = Date.now();
   const { rows } = await store.pool.query<{ id: number }>('SELECT id FROM vessel ORDER BY id');
   const days = daysBetween(new Date(plan.fromMs).toISOString().slice(0, 10), new Date(toMs - DAY_MS).toISOString().slice(0, 10));
@@ -95,7 +104,6 @@ async function loadStore(fleet: ReturnType<typeof readFleetFile>, plan: ReturnTy
   await recomputeDays(store.pool, work, TZ, (done, total) => process.stderr.write(`\rdaily figures: ${done}/${total} vessel-days`));
   process.stderr.write('\n');
   console.log(`daily figures of ${work.length} vessel-days in ${seconds(computeStart)} s`);
-  return store;
 }
 
 async function main(): Promise<void> {
@@ -107,6 +115,7 @@ async function main(): Promise<void> {
   console.log(`eval:flags — ${fleet.vessels.length} vessels × ${plan.days} days from ${args.from}, seed ${plan.seed}; ${truth.entries.filter((e) => e.expect_flag).length} faults expected to flag`);
 
   const store = args.reuse ? await openEvalStore(args.reuse) : await loadStore(fleet, plan);
+  if (args.reuse && args.recompute) await computeDaily(store, plan);
   try {
     // The flag job from a clean slate, day by day as the nightly run would have gone.
     await store.pool.query('DELETE FROM flag');

@@ -6,7 +6,7 @@ import { limitEventsPerDpDay, powerFigures } from '../lib/metrics/powerLimit';
 import { refFigures } from '../lib/metrics/refs';
 import { stationDayFigures } from '../lib/metrics/stationDay';
 import { sumWearHours } from '../lib/metrics/wear';
-import type { Stream, TelemetryRecord } from '../lib/telemetry/schemas';
+import type { StationRecord, Stream, TelemetryRecord } from '../lib/telemetry/schemas';
 import { fleetDay } from '../lib/time/fleetDay';
 import { createMigratedDatabase, type TestDatabase } from './helpers/db';
 import { randomTelemetry, type RandomTelemetry } from './helpers/randomTelemetry';
@@ -100,6 +100,8 @@ describe('daily job = the metrics-v1 formulas on the same records', () => {
       expectClose(row.hdg_rms_deg, s.hdg_rms, at('hdg_rms'));
       expectClose(row.hdg_max_abs_deg, s.hdg_max_abs, at('hdg_max_abs'));
       expectClose(row.wind_mean_ms, s.wind_ms_mean, at('wind'));
+      expectClose(row.wind_beam_share, beamShare(station), at('wind beam share'));
+      expect(row.wind_beam_share, at('wind beam share present')).not.toBeNull();
       expectClose(row.gust_max_ms, s.wind_gust_ms_max, at('gust'));
       expectClose(row.current_mean_ms, s.current_ms_mean, at('current'));
       expectClose(row.limit_events, p.limit_events, at('limit_events'));
@@ -169,3 +171,21 @@ describe('daily job = the metrics-v1 formulas on the same records', () => {
     expect(await snapshot()).toEqual(before);
   });
 });
+
+/**
+ * The wind's beam share of a day, straight from its records (docs/flags.md): the dt-weighted mean of
+ * |sin(wind from − heading set point)| over DP intervals (auto_position) with wind, its direction and
+ * a set point; undefined when there is none.
+ */
+function beamShare(records: readonly StationRecord[]): number | undefined {
+  let sum = 0;
+  let dt = 0;
+  for (const r of records) {
+    const from = r.env?.wind_from_deg;
+    const hdg = r.sp?.hdg;
+    if (r.mode !== 'auto_position' || from == null || hdg == null || !(r.env!.wind_ms! > 0)) continue;
+    sum += r.dt * Math.abs(Math.sin(((from - hdg) * Math.PI) / 180));
+    dt += r.dt;
+  }
+  return dt > 0 ? sum / dt : undefined;
+}

@@ -56,13 +56,7 @@ function storeOf(name: string): EvalStore {
 export async function createEvalStore(name: string, fleet: FleetFile, fromMs: number, toMs: number): Promise<EvalStore> {
   if (!/^[a-z_][a-z0-9_]{0,62}$/.test(name)) throw new Error(`database name "${name}": lower-case letters, digits and _ only`);
   await admin((c) => c.query(`CREATE DATABASE ${name}`));
-  const store = storeOf(name);
-  const client = await store.pool.connect();
-  try {
-    await migrate(pgExecutor(client), { store: 'partitions' });
-  } finally {
-    client.release();
-  }
+  const store = await migrated(name);
   const prisma = createPrisma(store.url);
   try {
     await importFleet(prisma, fleet);
@@ -76,9 +70,21 @@ export async function createEvalStore(name: string, fleet: FleetFile, fromMs: nu
   return store;
 }
 
-/** An existing evaluation database, as left by `--keep`. */
+/** An existing evaluation database, as left by `--keep`, brought up to date with the migrations. */
 export async function openEvalStore(name: string): Promise<EvalStore> {
   const exists = await admin((c) => c.query('SELECT 1 FROM pg_database WHERE datname = $1', [name]));
   if (exists.rowCount === 0) throw new Error(`no database "${name}" on ${serverUrl()}`);
-  return storeOf(name);
+  return migrated(name);
+}
+
+/** The store of database `name`, with every migration applied (the plain-partitions flavour). */
+async function migrated(name: string): Promise<EvalStore> {
+  const store = storeOf(name);
+  const client = await store.pool.connect();
+  try {
+    await migrate(pgExecutor(client), { store: 'partitions' });
+  } finally {
+    client.release();
+  }
+  return store;
 }

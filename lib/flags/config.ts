@@ -33,12 +33,20 @@ const seriesSchema = z
      * beyond that, the weather's effect is extrapolated, not measured (lib/flags/weather.ts).
      */
     baselineWeatherOnly: z.boolean(),
+    /** With weatherAdjust: take the wind's beam share (daily_vessel.wind_beam_share) into the weather fit too (lib/flags/weather.ts). */
+    weatherBeam: z.boolean(),
   })
   .partial()
   .strict();
 export type SeriesSettings = Required<z.infer<typeof seriesSchema>>;
 
-const GENERIC: Omit<SeriesSettings, 'weatherAdjust' | 'logScale' | 'baselineWeatherOnly'> = { enabled: true, minRelativeChange: 0.1, minAbsoluteChange: 0, maxBaselineScatter: null };
+const GENERIC: Omit<SeriesSettings, 'weatherAdjust' | 'logScale' | 'baselineWeatherOnly'> = {
+  enabled: true,
+  minRelativeChange: 0.1,
+  minAbsoluteChange: 0,
+  maxBaselineScatter: null,
+  weatherBeam: false,
+};
 
 /**
  * Defaults per watched series. The thresholds are the project's choice,
@@ -48,7 +56,8 @@ const GENERIC: Omit<SeriesSettings, 'weatherAdjust' | 'logScale' | 'baselineWeat
  */
 export const SERIES_DEFAULTS: Record<SeriesKey, Partial<SeriesSettings>> = {
   p95_norm: { minRelativeChange: 0.15 },
-  hdg_rms: { minRelativeChange: 0.15 },
+  // Heading RMS follows the wind's angle off the bow more than its speed (docs/flags.md, evaluation).
+  hdg_rms: { minRelativeChange: 0.15, weatherBeam: true },
   // A thruster that idles or works at many operating points (tunnel, main propeller on DP)
   // has an index that scatters by tens of % a day: the bollard relation behind it does not hold.
   efficiency_index: { minRelativeChange: 0.05, maxBaselineScatter: 0.1 },

@@ -4,7 +4,7 @@ import { detect, lineEnd, minimumChange, movingRangeSigma } from './detect';
 import { addDays } from '../time/fleetDay';
 
 const S = DEFAULT_FLAG_SETTINGS;
-const series = { enabled: true, minRelativeChange: 0.05, minAbsoluteChange: 0, weatherAdjust: false, logScale: false, maxBaselineScatter: null, baselineWeatherOnly: false };
+const series = { enabled: true, minRelativeChange: 0.05, minAbsoluteChange: 0, weatherAdjust: false, logScale: false, maxBaselineScatter: null, baselineWeatherOnly: false, weatherBeam: false };
 const days = (from: string, values: number[]) => values.map((value, i) => ({ day: addDays(from, i), value }));
 /** Deterministic scatter of ±1 % (no source: a fixed pattern so the test cannot flake). */
 const wobble = (i: number) => 0.01 * Math.sin(i * 2.39996);

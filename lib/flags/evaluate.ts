@@ -47,7 +47,7 @@ export async function evaluateDay(pool: Pool, day: string, options: EvaluateOpti
   if (vesselIds.length === 0) return summary;
 
   const ranges = rangesFor(day, settings);
-  const [{ series, wind, skippedUnits }, live, closed] = await Promise.all([
+  const [{ series, wind, beam, skippedUnits }, live, closed] = await Promise.all([
     readSeries(pool, vesselIds, ranges.baseline.from, day),
     liveFlags(pool, vesselIds),
     lastClosedDays(pool, vesselIds, options.timeZone),
@@ -61,7 +61,7 @@ export async function evaluateDay(pool: Pool, day: string, options: EvaluateOpti
     if (!seriesSettings.enabled || s.values.at(-1)?.day !== day) continue;
     const id = { vesselId: s.vesselId, subject: s.subject, metric: s.key };
     const key = seriesIdKey(id);
-    const judged = judge(s.values, wind.get(s.vesselId) ?? noWind, watched, seriesSettings, settings, day, closed.get(key) ?? null);
+    const judged = judge(s.values, wind.get(s.vesselId) ?? noWind, watched, seriesSettings, settings, day, closed.get(key) ?? null, beam.get(s.vesselId));
     if (!judged) continue;
     const { detection } = judged;
     summary.evaluated++;

@@ -17,7 +17,15 @@ export function evidenceOf(j: Judgement, settings: FlagSettings, direction: stri
     level: d.level,
     min_change: d.minChange,
     // Weather adjustment (lib/flags/weather.ts): y − β1·(W² − mean W²), fitted on the baseline days.
-    weather_adjustment: j.weather && { beta0: j.weather.beta0, beta1_per_w2: j.weather.beta1, mean_w2: j.weather.meanW2, baseline_days: j.weather.baselineDays },
+    weather_adjustment: j.weather && {
+      beta0: j.weather.beta0,
+      beta1_per_w2: j.weather.beta1,
+      mean_w2: j.weather.meanW2,
+      // − β2·(B − mean B) too, with B the day's beam share of the wind; null when the wind alone was used.
+      beta2_per_beam_share: j.weather.beta2,
+      mean_beam_share: j.weather.meanBeam,
+      baseline_days: j.weather.baselineDays,
+    },
     // Days of the window with more wind than the baseline saw (lib/flags/weather.ts withinBaselineWeather) were left out.
     weather_range: j.weatherRange && { max_wind_ms: j.weatherRange.maxWindMs, days_left_out: j.weatherRange.leftOut },
     mann_kendall: t && {

@@ -87,7 +87,10 @@ export function explain(subject: string, s: WatchedSeries, j: Judgement, setting
       `control limit ${inUnit(e.limit)} (EWMA λ = ${settings.ewma.lambda}, L = ${settings.ewma.k}, ${from}).`;
     parts.push((t?.holds && !fast) || (fast && c?.now != null) ? `The EWMA chart agrees: ${sentence}` : `${head} ${side} its baseline: ${sentence}`);
   }
-  if (j.weather) parts.push(`Judged with the wind's share removed (fitted on ${j.weather.baselineDays} baseline days).`);
+  if (j.weather) {
+    const what = j.weather.beta2 === null ? "the wind's share" : "the share of the wind's strength and of its angle off the bow";
+    parts.push(`Judged with ${what} removed (fitted on ${j.weather.baselineDays} baseline days).`);
+  }
   const r = j.weatherRange;
   if (r && r.leftOut > 0) {
     parts.push(`${r.leftOut} ${r.leftOut === 1 ? 'day' : 'days'} of the window with a mean wind above ${num(r.maxWindMs)} m/s, more than the baseline saw, not judged.`);

@@ -33,6 +33,7 @@ export function judge(
   settings: FlagSettings,
   day: string,
   closedDay: string | null,
+  beam?: ReadonlyMap<string, number>,
 ): Judgement | null {
   const r = rangesFor(day, settings);
   const windowFrom = firstDayAfterClose(r.window.from, closedDay);
@@ -50,10 +51,11 @@ export function judge(
   if (limit !== null && baseline.length >= settings.minBaselineDays && scatter(baseline.map((d) => d.value), scale) > limit) return null;
   let weather: WeatherFit | null = null;
   if (series.weatherAdjust) {
-    weather = fitWeather(baseline, wind, settings.minBaselineDays);
+    const byBeam = series.weatherBeam ? beam : undefined;
+    weather = fitWeather(baseline, wind, settings.minBaselineDays, byBeam);
     if (!weather) return null;
-    window = adjustForWeather(window, wind, weather);
-    baseline = adjustForWeather(baseline, wind, weather);
+    window = adjustForWeather(window, wind, weather, byBeam);
+    baseline = adjustForWeather(baseline, wind, weather, byBeam);
   }
   let weatherRange: WeatherRange | null = null;
   if (series.baselineWeatherOnly) {

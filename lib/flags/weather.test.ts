@@ -66,4 +66,31 @@ describe('weather adjustment (regression adjustment on W², Hawkins 1993)', () =
       expect(withinBaselineWeather(adjusted, calm, galeWind, 0.1, 10)!.window).toEqual([]);
     });
   });
+
+  describe("with the wind's beam share as a second regressor", () => {
+    // Beam shares that do not follow the wind speed: 0.1 … 0.55.
+    const beam = new Map(days.map((d, i) => [d, 0.1 + 0.05 * ((i * 5) % 10)]));
+
+    it('removes a heading figure driven by the angle off the bow as well as the speed (constructed, no source)', () => {
+      // y = 0.05 + 0.0002·W² + 0.2·B: the wind-speed fit alone leaves the beam's share in; both leave none.
+      const values = days.map((day) => ({ day, value: 0.05 + 0.0002 * wind.get(day)! ** 2 + 0.2 * beam.get(day)! }));
+      const both = fitWeather(values.slice(0, 20), wind, 10, beam)!;
+      expect(both.beta2).toBeCloseTo(0.2, 9);
+      expect(both.beta1).toBeCloseTo(0.0002, 9);
+      const flat = adjustForWeather(values, wind, both, beam).map((d) => d.value);
+      expect(Math.max(...flat) - Math.min(...flat)).toBeLessThan(1e-9);
+      const speedOnly = fitWeather(values.slice(0, 20), wind, 10)!;
+      const left = adjustForWeather(values, wind, speedOnly).map((d) => d.value);
+      expect(Math.max(...left) - Math.min(...left)).toBeGreaterThan(0.05);
+    });
+
+    it('falls back to the wind alone when the beam share hardly varies (a vessel heading into the wind)', () => {
+      const steady = new Map(days.map((d) => [d, 0.02]));
+      const values = days.map((day) => ({ day, value: 0.05 + 0.0002 * wind.get(day)! ** 2 }));
+      const fit = fitWeather(values.slice(0, 20), wind, 10, steady)!;
+      expect(fit.beta2).toBeNull();
+      expect(fit.beta1).toBeCloseTo(0.0002, 9);
+      expect(adjustForWeather(values, wind, fit, steady)).toHaveLength(30);
+    });
+  });
 });

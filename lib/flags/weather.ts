@@ -24,21 +24,53 @@ export interface WeatherFit {
   beta0: number;
   beta1: number;
   meanW2: number;
+  /** With the beam share B as a second regressor (heading RMS): y = β0 + β1·W² + β2·B; else null. */
+  beta2: number | null;
+  meanBeam: number | null;
   baselineDays: number;
 }
 
-/** Fit over the baseline values that have a wind figure; null without at least `minDays` of them or a solvable fit. */
-export function fitWeather(baseline: readonly DayValue[], wind: ReadonlyMap<string, number>, minDays: number): WeatherFit | null {
+/**
+ * Fit over the baseline values that have a wind figure; null without at least `minDays` of them or a
+ * solvable fit. With `beam` (a day's beam share of the wind, 0 bow or stern … 1 beam), over the days
+ * that have both, the beam share is a second regressor — heading RMS follows the wind's angle off
+ * the bow more than its speed (docs/flags.md "Weather"); when that fit cannot be made (too few days,
+ * or a vessel that always heads into the wind, whose beam share does not vary) the wind alone is used.
+ */
+export function fitWeather(baseline: readonly DayValue[], wind: ReadonlyMap<string, number>, minDays: number, beam?: ReadonlyMap<string, number>): WeatherFit | null {
+  if (beam) {
+    const both = baseline.filter((d) => wind.has(d.day) && beam.has(d.day));
+    if (both.length >= minDays) {
+      const w2 = both.map((d) => wind.get(d.day)! ** 2);
+      const b = both.map((d) => beam.get(d.day)!);
+      const spread = Math.max(...b) - Math.min(...b);
+      const fit = spread > 0.05 ? huberRegression(both.map((_, i) => [1, w2[i]!, b[i]!]), both.map((d) => d.value)) : null;
+      if (fit && fit.coef.every(Number.isFinite)) {
+        return { beta0: fit.coef[0]!, beta1: fit.coef[1]!, meanW2: mean(w2), beta2: fit.coef[2]!, meanBeam: mean(b), baselineDays: both.length };
+      }
+    }
+  }
   const points = baseline.filter((d) => wind.has(d.day));
   if (points.length < minDays) return null;
   const w2 = points.map((d) => wind.get(d.day)! ** 2);
   const fit = huberRegression(w2.map((x) => [1, x]), points.map((d) => d.value));
   if (!fit) return null;
-  return { beta0: fit.coef[0]!, beta1: fit.coef[1]!, meanW2: w2.reduce((s, x) => s + x, 0) / w2.length, baselineDays: points.length };
+  return { beta0: fit.coef[0]!, beta1: fit.coef[1]!, meanW2: mean(w2), beta2: null, meanBeam: null, baselineDays: points.length };
 }
 
-export function adjustForWeather(values: readonly DayValue[], wind: ReadonlyMap<string, number>, fit: WeatherFit): DayValue[] {
-  return values.filter((d) => wind.has(d.day)).map((d) => ({ day: d.day, value: d.value - fit.beta1 * (wind.get(d.day)! ** 2 - fit.meanW2) }));
+/** Each day's value with the weather's share removed; days without the figures the fit uses are left out. */
+export function adjustForWeather(values: readonly DayValue[], wind: ReadonlyMap<string, number>, fit: WeatherFit, beam?: ReadonlyMap<string, number>): DayValue[] {
+  const byBeam = fit.beta2 !== null && beam !== undefined;
+  return values
+    .filter((d) => wind.has(d.day) && (!byBeam || beam.has(d.day)))
+    .map((d) => ({
+      day: d.day,
+      value: d.value - fit.beta1 * (wind.get(d.day)! ** 2 - fit.meanW2) - (byBeam ? fit.beta2! * (beam.get(d.day)! - fit.meanBeam!) : 0),
+    }));
+}
+
+function mean(xs: readonly number[]): number {
+  return xs.reduce((s, x) => s + x, 0) / xs.length;
 }
 
 /**

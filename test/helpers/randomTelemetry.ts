@@ -62,11 +62,13 @@ export function randomTelemetry(o: RandomTelemetryOptions): RandomTelemetry {
       mode,
       dp_s: mode === 'auto_position' ? o.dt : f(o.dt * rnd.next() * 0.3),
       n,
+      sp: has() ? { lat: 59.412, lon: 2.871, hdg: f(360 * rnd.next()) } : undefined,
       err: { r_mean: f(r * 0.9), r_rms: opt(f(r)), r_max: opt(f(r * 2.5)), hist: has() ? hist : undefined },
       hdg_err: has() ? { mean: f(rnd.normal() * 0.2), rms: opt(f(0.2 + rnd.next())), max_abs: opt(f(1 + 2 * rnd.next())) } : undefined,
       env: {
         wind_ms: opt(f(wind + rnd.normal())),
         wind_gust_ms: opt(f(wind * 1.4 + 2 * rnd.next())),
+        wind_from_deg: opt(f(360 * rnd.next())),
         current_ms: opt(f(0.2 + 0.5 * rnd.next())),
       },
     } as StationRecord);

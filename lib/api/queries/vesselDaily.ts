@@ -10,7 +10,7 @@ import { vesselRangeRows } from './vesselByKey';
  * never a row of zeros. within_pct is passed on as the job stored it, keyed by the
  * watch circles the vessel had then.
  */
-export type VesselDayItem = Omit<DailyVesselRow, 'vessel_id' | 'station_records' | 'dp_intervals' | 'samples' | 'err_hist'> & {
+export type VesselDayItem = Omit<DailyVesselRow, 'vessel_id' | 'station_records' | 'dp_intervals' | 'samples' | 'err_hist' | 'wind_beam_share'> & {
   p95_norm: number | null;
 };
 

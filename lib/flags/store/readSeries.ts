@@ -23,7 +23,7 @@ export const UNIT_ID = /^[A-Za-z0-9_-]{1,16}$/;
 
 // Identifiers come from this fixed list only; every value is bound.
 const VESSEL_SQL = `
-  SELECT vessel_id, day::text AS day, p95_norm, hdg_rms_deg, limit_events_per_dp_day, wind_mean_ms
+  SELECT vessel_id, day::text AS day, p95_norm, hdg_rms_deg, limit_events_per_dp_day, wind_mean_ms, wind_beam_share
     FROM daily_vessel
    WHERE vessel_id = ANY($1::int[]) AND day BETWEEN $2::date AND $3::date
    ORDER BY vessel_id, day`;
@@ -59,6 +59,8 @@ export interface SeriesRead {
   series: SubjectSeries[];
   /** Each vessel's daily mean wind (m/s) by day, for the weather adjustment. */
   wind: Map<number, Map<string, number>>;
+  /** Each vessel's daily beam share of the wind (0–1) by day, for the weather adjustment of heading RMS. */
+  beam: Map<number, Map<string, number>>;
   /** Units whose id cannot be a flag subject ('thruster:ID' or 'ref:ID' with ID not matching UNIT_ID). */
   skippedUnits: string[];
 }
@@ -73,11 +75,15 @@ export async function readSeries(db: Queryable, vesselIds: readonly number[], fr
   const b = new SeriesBuilder();
   const skipped = new Set<string>();
   const wind = new Map<number, Map<string, number>>();
+  const beam = new Map<number, Map<string, number>>();
+  const put = (to: Map<number, Map<string, number>>, r: Row, value: unknown) => {
+    if (value === null || value === undefined) return;
+    if (!to.has(r.vessel_id)) to.set(r.vessel_id, new Map());
+    to.get(r.vessel_id)!.set(r.day, Number(value));
+  };
   for (const r of vessel.rows) {
-    if (r.wind_mean_ms !== null && r.wind_mean_ms !== undefined) {
-      if (!wind.has(r.vessel_id)) wind.set(r.vessel_id, new Map());
-      wind.get(r.vessel_id)!.set(r.day, Number(r.wind_mean_ms));
-    }
+    put(wind, r, r.wind_mean_ms);
+    put(beam, r, r.wind_beam_share);
     b.add(r.vessel_id, 'vessel', 'p95_norm', r.day, r.p95_norm);
     b.add(r.vessel_id, 'vessel', 'hdg_rms', r.day, r.hdg_rms_deg);
     b.add(r.vessel_id, 'vessel', 'limit_events_per_dp_day', r.day, r.limit_events_per_dp_day);
@@ -94,5 +100,5 @@ export async function readSeries(db: Queryable, vesselIds: readonly number[], fr
     }
   }
   // Only the series the settings could watch; WATCHED_SERIES names them all.
-  return { series: b.result().filter((s) => s.key in WATCHED_SERIES), wind, skippedUnits: [...skipped] };
+  return { series: b.result().filter((s) => s.key in WATCHED_SERIES), wind, beam, skippedUnits: [...skipped] };
 }

@@ -54,10 +54,12 @@ export const STATION_SQL = `${BATCH}
          max(s.hdg_err_max_abs::float8) FILTER (WHERE s.dp) AS h_max_abs,
          sum(s.dt::float8 * s.wind_ms::float8) FILTER (WHERE s.dp AND s.wind_ms IS NOT NULL) AS wind_sum,
          sum(s.dt::float8) FILTER (WHERE s.dp AND s.wind_ms IS NOT NULL) AS wind_dt,
+         sum(s.dt::float8 * abs(sin(radians(s.wind_from_deg::float8 - s.sp_hdg::float8)))) FILTER (WHERE s.dp AND s.beam) AS beam_sum,
+         sum(s.dt::float8) FILTER (WHERE s.dp AND s.beam) AS beam_dt,
          sum(s.dt::float8 * s.current_ms::float8) FILTER (WHERE s.dp AND s.current_ms IS NOT NULL) AS current_sum,
          sum(s.dt::float8) FILTER (WHERE s.dp AND s.current_ms IS NOT NULL) AS current_dt,
          max(s.wind_gust_ms::float8) FILTER (WHERE s.dp) AS gust_max
-  ${dayJoin('ts_station', ", x.mode = 'auto_position' AS dp")}
+  ${dayJoin('ts_station', ", x.mode = 'auto_position' AS dp, (x.wind_from_deg IS NOT NULL AND x.sp_hdg IS NOT NULL AND x.wind_ms > 0) AS beam")}
    GROUP BY d.vessel_id, s.day`;
 
 /** Thrusters, per unit: running, starts, travel, load-band seconds and the efficiency sums. */
@@ -129,6 +131,8 @@ export interface StationAggregate {
   h_max_abs: number | null;
   wind_sum: number | null;
   wind_dt: number | null;
+  beam_sum: number | null;
+  beam_dt: number | null;
   current_sum: number | null;
   current_dt: number | null;
   gust_max: number | null;

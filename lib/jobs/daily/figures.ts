@@ -31,6 +31,8 @@ export interface DailyVesselRow {
   hdg_rms_deg: number | null;
   hdg_max_abs_deg: number | null;
   wind_mean_ms: number | null;
+  /** Mean |sin(wind from − heading set point)| over DP intervals with both, weighted by dt (0 bow or stern, 1 beam). */
+  wind_beam_share: number | null;
   gust_max_ms: number | null;
   current_mean_ms: number | null;
   limit_events: number | null;
@@ -114,6 +116,7 @@ export function vesselDayRow(
     hdg_rms_deg: station ? dayRms(station.h_ss, station.h_n) : null,
     hdg_max_abs_deg: station?.h_max_abs ?? null,
     wind_mean_ms: station ? ratio(station.wind_sum, station.wind_dt) : null,
+    wind_beam_share: station ? ratio(station.beam_sum, station.beam_dt) : null,
     gust_max_ms: station?.gust_max ?? null,
     current_mean_ms: station ? ratio(station.current_sum, station.current_dt) : null,
     limit_events: limitEvents,

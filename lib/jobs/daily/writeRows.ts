@@ -46,6 +46,7 @@ const VESSEL_COLUMNS: Columns<DailyVesselRow> = [
   ['hdg_rms_deg', 'float8'],
   ['hdg_max_abs_deg', 'float8'],
   ['wind_mean_ms', 'float8'],
+  ['wind_beam_share', 'float8'],
   ['gust_max_ms', 'float8'],
   ['current_mean_ms', 'float8'],
   ['limit_events', 'int'],
