@@ -27,7 +27,7 @@
  * --settings FILE.json.
  * EVAL_DATABASE_URL chooses the PostgreSQL server (default 127.0.0.1:5432).
  *
- * A full run (12 vessels × 120 days) took 34 minutes on this 2-core machine,
+ * A full run (12 vessels × 120 days) took 11 minutes on this 2-core machine,
  * nearly all of it simulation and ingest; --reuse takes under a minute.
  * Results: docs/flags.md "Evaluation".
  */
