@@ -14,8 +14,9 @@ import { rangesFor, within, type DayValue } from './window';
  * A weather-adjusted series is judged only once its baseline holds
  * minBaselineDays days with wind: without a fit there is no telling weather
  * from wear. A series that moves with the wind is judged on the window's
- * days whose wind the baseline has seen (weather.ts, withinBaselineWeather). Other series are judged from minDays in the window
- * (Mann–Kendall alone until the baseline exists for the EWMA chart).
+ * days whose wind the baseline has seen (weather.ts, withinBaselineWeather).
+ * Other series are judged from minDays in the window (Mann–Kendall alone
+ * until the baseline exists for the EWMA chart).
  */
 
 export interface Judgement {
