@@ -88,7 +88,8 @@ describe('ingest start-up faults', () => {
     expect(out.text).not.toMatch(/\n\s+at /); // no stack trace: a warning per attempt, nothing more
 
     relays.push(await openRelay(port, target(real())));
-    await waitFor(() => out.text.includes('subscribed to') || out.exit !== undefined, 30_000, 'the worker to start');
+    // Signalled only once it says a signal stops it cleanly (cli/commands/services.ts untilSignal).
+    await waitFor(() => out.text.includes('SIGTERM stops it cleanly') || out.exit !== undefined, 30_000, 'the worker to start');
     expect(out.text).toMatch(new RegExp(`${what} reachable after \\d+ attempts; starting`));
     expect(out.text).toContain('subscribed to');
     expect(await stop(child)).toBe(0);

@@ -46,14 +46,14 @@ describe('the ingest worker bundle', () => {
     await new Promise<void>((resolve, reject) => {
       const onData = (d: Buffer) => {
         output += d.toString();
-        if (output.includes('subscribed to')) resolve();
+        if (output.includes('SIGTERM stops it cleanly')) resolve();
       };
       child.stdout.on('data', onData);
       child.stderr.on('data', onData);
       void exited.then((code) => reject(new Error(`worker exited (${code}): ${output}`)));
     });
-    // `holdfast ingest` listens for SIGTERM only once it has subscribed; give it a moment, then stop it as an operator would.
-    await new Promise((r) => setTimeout(r, 500));
+    // Stopped as an operator would, once it says a signal stops it cleanly.
+    expect(output).toContain('subscribed to');
     child.kill('SIGTERM');
     expect(await exited).toBe(0);
     // An empty database: the worker applied the migrations, found beside lib/db as under tsx.

@@ -4,12 +4,17 @@ import type { Logger } from '../../lib/log/logger';
 import { classifyDatabaseError, retryAtStart } from '../../ingest/startupRetry';
 import { ingestWorkerFor, openStore, statusServerFor } from '../runtime';
 
-/** Block until SIGINT or SIGTERM, then run `stop`. */
-function untilSignal(stop: () => Promise<void>): Promise<void> {
+/**
+ * Block until SIGINT or SIGTERM, then run `stop`. Once the handlers are in place it logs that the
+ * process is running: from that line on a signal stops it cleanly (before it, the default action
+ * would end it at once), so whoever supervises it knows when it is safe to signal.
+ */
+function untilSignal(stop: () => Promise<void>, log: Logger, what: string): Promise<void> {
   return new Promise((resolve) => {
     const onSignal = () => void stop().finally(resolve);
     process.once('SIGINT', onSignal);
     process.once('SIGTERM', onSignal);
+    log.info(`${what} running; SIGINT or SIGTERM stops it cleanly`);
   });
 }
 
@@ -43,11 +48,15 @@ export async function ingestCommand(config: Config, log: Logger): Promise<void> 
     throw error;
   }
   if (status) log.info(`status server on port ${status.port} (all interfaces): /metrics, /healthz`);
-  await untilSignal(async () => {
-    await worker.stop();
-    await status?.stop();
-    await store.close();
-  });
+  await untilSignal(
+    async () => {
+      await worker.stop();
+      await status?.stop();
+      await store.close();
+    },
+    log,
+    'ingest worker',
+  );
 }
 
 /** `holdfast jobs`: the scheduled job runner, for production deployments. */
@@ -56,10 +65,14 @@ export async function jobsCommand(config: Config, log: Logger): Promise<void> {
   const store = await openStore(config, log.child('store'));
   const { startJobRunner } = await import('../../lib/jobs/runner');
   const runner = await startJobRunner({ connectionString: store.url, pool: store.pool, timeZone: config.FLEET_TIME_ZONE, log: log.child('jobs') });
-  await untilSignal(async () => {
-    await runner.stop();
-    await store.close();
-  });
+  await untilSignal(
+    async () => {
+      await runner.stop();
+      await store.close();
+    },
+    log,
+    'job runner',
+  );
 }
 
 /** `holdfast migrate`: bring the store up to date and exit. */

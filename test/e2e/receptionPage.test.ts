@@ -190,6 +190,8 @@ describe('Reception page in a browser', () => {
   it('is usable from the keyboard', async () => {
     const { page, errors } = await browser!.newPage();
     await page.goto(server!.url + RECEPTION);
+    // The table streams in after the header: wait for it, or the second Tab finds nothing to stop on.
+    await page.locator('[aria-labelledby="fleet-caption"]').waitFor();
     await page.keyboard.press('Tab');
     expect(await page.evaluate(() => document.activeElement?.textContent)).toBe('Skip to content');
     await page.keyboard.press('Enter');
