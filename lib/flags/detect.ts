@@ -2,7 +2,9 @@ import type { FlagSettings, SeriesSettings } from './config';
 import { cusumChart, shiftedMean } from './cusum';
 import { ewmaChart, ewmaHalfWidth } from './ewma';
 import { mannKendall, type MannKendallResult } from './mannKendall';
+import { median } from '../metrics/refs';
 import { rankSum } from './rankSum';
+import { mean, sampleSd } from './stats';
 import { senSlope, type SenSlope } from './senSlope';
 import type { Direction } from './series';
 import { dayNumber, type DayValue } from './window';
@@ -84,6 +86,11 @@ export interface CusumEvidence {
 export type Scale = 'log' | 'linear';
 export type DetectionPath = 'mann_kendall+ewma' | 'cusum+rank_sum' | 'cusum+mann_kendall';
 
+/** Whether a detection opened by the fast path (a CUSUM signal and its confirmation). */
+export function isFastPath(path: DetectionPath | null): path is 'cusum+rank_sum' | 'cusum+mann_kendall' {
+  return path === 'cusum+rank_sum' || path === 'cusum+mann_kendall';
+}
+
 export interface Detection {
   /**
    * 'log': every value (window, baseline, level, slope, EWMA, minimum change) is in natural-log
@@ -109,26 +116,11 @@ export interface Detection {
   either: boolean;
 }
 
-function mean(xs: readonly number[]): number {
-  return xs.reduce((s, x) => s + x, 0) / xs.length;
-}
-
-function sampleSd(xs: readonly number[]): number {
-  const m = mean(xs);
-  return Math.sqrt(xs.reduce((s, x) => s + (x - m) ** 2, 0) / (xs.length - 1));
-}
-
 /** σ estimated from successive differences: mean |x_t − x_{t−1}| / d2, d2 = 1.128 for ranges of two. */
 export function movingRangeSigma(xs: readonly number[]): number {
   let sum = 0;
   for (let i = 1; i < xs.length; i++) sum += Math.abs(xs[i]! - xs[i - 1]!);
   return sum / (xs.length - 1) / 1.128;
-}
-
-function median(xs: readonly number[]): number {
-  const s = [...xs].sort((a, b) => a - b);
-  const h = s.length >> 1;
-  return s.length % 2 ? s[h]! : (s[h - 1]! + s[h]!) / 2;
 }
 
 /**
@@ -138,7 +130,7 @@ function median(xs: readonly number[]): number {
  */
 export function lineEnd(t: readonly number[], x: readonly number[]): number {
   const slope = senSlope(t, x, 0, 0.95)!.slope;
-  return median(x.map((y, i) => y - slope * t[i]!)) + slope * t.at(-1)!;
+  return median(x.map((y, i) => y - slope * t[i]!))! + slope * t.at(-1)!;
 }
 
 /**
@@ -171,7 +163,7 @@ export function detect(
   const values = window.map((d) => d.value);
   const hasBaseline = baseline.length >= settings.minBaselineDays;
   const base = baseline.map((d) => d.value);
-  const level = hasBaseline ? mean(base) : (healthyLevel ?? median(values));
+  const level = hasBaseline ? mean(base) : (healthyLevel ?? median(values)!);
   const minChange = minimumChange(series, level, sign, scale);
 
   let trend: TrendEvidence | null = null;
@@ -255,7 +247,7 @@ export function detect(
     trend,
     ewma,
     cusum,
-    path: trend?.holds && ewma?.holds ? 'mann_kendall+ewma' : cusum?.holds ? (cusum.confirm!.test === 'rank_sum' ? 'cusum+rank_sum' : 'cusum+mann_kendall') : null,
+    path: trend?.holds && ewma?.holds ? 'mann_kendall+ewma' : cusum?.holds ? (`cusum+${cusum.confirm!.test}` as const) : null,
     holds: Boolean((trend?.holds && ewma?.holds) || cusum?.holds),
     either: Boolean(trend?.holds || ewma?.holds || cusum?.holds),
   };

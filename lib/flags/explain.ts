@@ -1,3 +1,4 @@
+import { isFastPath } from './detect';
 import type { FlagSettings } from './config';
 import type { Judgement } from './judge';
 import type { WatchedSeries } from './series';
@@ -48,7 +49,7 @@ export function explain(subject: string, s: WatchedSeries, j: Judgement, setting
   const t = d.trend;
   const e = d.ewma;
   // The fast path leads with the CUSUM; a slow method that also holds then 'agrees'.
-  const fast = d.path === 'cusum+rank_sum' || d.path === 'cusum+mann_kendall';
+  const fast = isFastPath(d.path);
   const c = d.cusum;
   if (fast && c && c.now !== null) {
     const since = c.run === 1 ? 'today' : `${c.run} days ago`;

@@ -2,6 +2,7 @@ import type { FlagSettings, SeriesSettings } from './config';
 import { detect, type Detection } from './detect';
 import { firstDayAfterClose } from './lifecycle';
 import type { WatchedSeries } from './series';
+import { mean, sampleSd } from './stats';
 import { adjustForWeather, fitWeather, withinBaselineWeather, type WeatherFit, type WeatherRange } from './weather';
 import { rangesFor, within, type DayValue } from './window';
 
@@ -70,7 +71,7 @@ export function judge(
 
 /** Day-to-day scatter of baseline values: the sd of their logs (≈ coefficient of variation), or sd / |mean| on the linear scale. */
 function scatter(values: readonly number[], scale: 'log' | 'linear'): number {
-  const m = values.reduce((s, x) => s + x, 0) / values.length;
-  const sd = Math.sqrt(values.reduce((s, x) => s + (x - m) ** 2, 0) / (values.length - 1));
+  const m = mean(values);
+  const sd = sampleSd(values);
   return scale === 'log' ? sd : Math.abs(m) > 0 ? sd / Math.abs(m) : Infinity;
 }

@@ -1,4 +1,4 @@
-import type { Detection, DetectionPath } from './detect';
+import { isFastPath, type Detection, type DetectionPath } from './detect';
 import type { Direction } from './series';
 
 /**
@@ -46,7 +46,7 @@ export function verdictOf(d: Detection, direction: Direction): Verdict | null {
   const changes = [sign * d.trend.change, sign * (d.ewma.ewma - d.ewma.target)];
   if (d.cusum?.now != null) changes.push(sign * (d.cusum.now - d.cusum.target));
   const severity = severityOf(Math.max(...changes), d.minChange);
-  if (d.path && d.path !== METHOD && d.cusum) {
+  if (isFastPath(d.path) && d.cusum) {
     return { method: d.path, statistic: d.cusum.c / d.cusum.sigma, statisticName: 'cusum_sd', severity, change: Math.max(...changes) };
   }
   return { method: METHOD, statistic: d.trend.mk.z, statisticName: 'kendall_z', severity, change: Math.max(...changes) };

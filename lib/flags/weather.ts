@@ -1,4 +1,5 @@
 import { huberRegression } from '../metrics/normalisedAccuracy';
+import { mean } from './stats';
 import type { DayValue } from './window';
 
 /**
@@ -67,10 +68,6 @@ export function adjustForWeather(values: readonly DayValue[], wind: ReadonlyMap<
       day: d.day,
       value: d.value - fit.beta1 * (wind.get(d.day)! ** 2 - fit.meanW2) - (byBeam ? fit.beta2! * (beam.get(d.day)! - fit.meanBeam!) : 0),
     }));
-}
-
-function mean(xs: readonly number[]): number {
-  return xs.reduce((s, x) => s + x, 0) / xs.length;
 }
 
 /**

@@ -1,3 +1,4 @@
+import { median } from '../../metrics/refs';
 import { dayNumber } from '../window';
 
 /**
@@ -55,12 +56,8 @@ export interface Score {
 
 const key = (vessel: string, subject: string, metric: string | null) => `${vessel}|${subject}|${metric}`;
 
-export function medianOf(xs: readonly number[]): number | null {
-  if (xs.length === 0) return null;
-  const s = [...xs].sort((a, b) => a - b);
-  const h = s.length >> 1;
-  return s.length % 2 ? s[h]! : (s[h - 1]! + s[h]!) / 2;
-}
+/** The median, null for none (lib/metrics/refs.ts). */
+export const medianOf = median;
 
 export function scoreFlags(truth: readonly TruthEntry[], flags: readonly RaisedFlag[]): Score {
   const expected = truth.filter((e) => e.expect_flag && e.metric !== null);
