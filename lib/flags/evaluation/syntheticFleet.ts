@@ -11,8 +11,8 @@ import type { TruthEntry } from './score';
  *
  *   fouling        one thruster's efficiency_index falls 1 % a day
  *   ref noise      one reference system's sd_m_median grows 8 % of nominal a day
- *   derate         limit events appear `derateLatencyDays` after onset (default 0:
- *                  the simulator's derating starts with a step) and grow
+ *   derate         limit events appear from onset (the simulator's derating
+ *                  starts with a step) and grow
  *   detune         p95_norm and heading RMS grow 2.5 % a day
  *   weather only   the mean wind grows 1.5 % a day (to +50 %): raw p95 and the
  *                  limit events follow the weather, p95_norm does not
@@ -75,12 +75,11 @@ export const THRUSTERS = ['T1', 'T2', 'T3', 'T4'];
 export const REFS = ['GNSS1', 'GNSS2', 'HPR1'];
 type Fault = 'fouling' | 'ref_noise' | 'derate' | 'detune' | 'weather_only' | 'none';
 
-export function syntheticFleet(o: { seed: number; from: string; days: number; healthy: number; onsetDay: number; derateLatencyDays?: number }): SyntheticFleet {
+export function syntheticFleet(o: { seed: number; from: string; days: number; healthy: number; onsetDay: number }): SyntheticFleet {
   const rng = new Rng(o.seed);
   const faults: Fault[] = ['fouling', 'ref_noise', 'derate', 'detune', 'weather_only', ...Array<Fault>(o.healthy).fill('none')];
   const fleet: SyntheticFleet = { from: o.from, days: o.days, vessels: [], vesselDays: [], thrusterDays: [], refDays: [], truth: [] };
   const onsetDate = addDays(o.from, o.onsetDay);
-  const latency = o.derateLatencyDays ?? 0;
   faults.forEach((fault, v) => {
     const vessel = `synth-${v + 1}`;
     fleet.vessels.push(vessel);
@@ -108,8 +107,8 @@ export function syntheticFleet(o: { seed: number; from: string; days: number; he
       const detune = fault === 'detune' ? 1 + 0.025 * since : 1;
       const p95Norm = detune * Math.exp(0.12 * rng.normal());
       // A derated section: tens to hundreds of events per DP day, with the load (the simulator's 40 % step: 14–620).
-      const derated = fault === 'derate' && d >= o.onsetDay + latency;
-      const events = derated ? 60 * load * (1 + 0.05 * (since - latency)) * Math.exp(0.8 * rng.normal()) : rng.next() < 0.04 ? 3 + 20 * rng.next() * load : 0;
+      const derated = fault === 'derate' && d >= o.onsetDay;
+      const events = derated ? 60 * load * (1 + 0.05 * since) * Math.exp(0.8 * rng.normal()) : rng.next() < 0.04 ? 3 + 20 * rng.next() * load : 0;
       fleet.vesselDays.push({
         vessel,
         day,
